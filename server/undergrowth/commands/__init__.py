@@ -1,0 +1,1 @@
+"""Subcommands of the `undergrowth` command line (one module each)."""
