@@ -47,6 +47,10 @@ class BranchDecision:
     children_seen: dict[int, tuple[float, float]] = field(default_factory=dict)
 
 
+def _closed(bound: float, cutoff: float | None) -> bool:
+    return bound == math.inf or (cutoff is not None and bound >= cutoff)
+
+
 def fractionality(values: np.ndarray) -> np.ndarray:
     f = values - np.floor(values)
     return np.minimum(f, 1.0 - f)
@@ -141,8 +145,10 @@ class _Lookahead:
         relax.restore_one_bound(j)
         self.iterations += res.iterations
         self.seconds += res.seconds
-        if res.status in (INFEASIBLE, CUTOFF):
+        if res.status == INFEASIBLE:
             return math.inf, CLOSED_CHILD_GAIN
+        if res.status == CUTOFF:  # passed the incumbent: its objective is still a valid bound
+            return res.objective, CLOSED_CHILD_GAIN
         if res.status in (OPTIMAL, ITERATION_LIMIT):
             return res.objective, max(res.objective - self.ctx.bound, 0.0)
         return self.ctx.bound, 0.0  # no usable answer: assume no gain
@@ -152,8 +158,7 @@ class _Lookahead:
         ctx = self.ctx
         j = int(ctx.candidates[k])
         v = float(ctx.values[k])
-        lo, up = ctx.relaxation._loaded.get(j, (ctx.relaxation.root_lower[j],
-                                                ctx.relaxation.root_upper[j]))
+        lo, up = float(ctx.relaxation.lower[j]), float(ctx.relaxation.upper[j])
         f = v - math.floor(v)
         down_bound, down_gain = self.child_gain(j, lo, math.floor(v))
         up_bound, up_gain = self.child_gain(j, math.ceil(v), up)
@@ -204,7 +209,7 @@ class StrongRule(BranchingRule):
                 s, lo_b, up_b = look.evaluate(int(k))
                 scores[k] = s
                 bounds[int(ctx.candidates[k])] = (lo_b, up_b)
-                if lo_b == math.inf and up_b == math.inf:
+                if _closed(lo_b, ctx.cutoff) and _closed(up_b, ctx.cutoff):
                     break  # both children closed: this node is done whichever we pick
         finally:
             look.finish()
@@ -254,7 +259,7 @@ class ReliabilityRule(BranchingRule):
                     since_improved = 0
                 else:
                     since_improved += 1
-                if lo_b == math.inf and up_b == math.inf:
+                if _closed(lo_b, ctx.cutoff) and _closed(up_b, ctx.cutoff):
                     break
         finally:
             look.finish()

@@ -22,7 +22,7 @@ from ..model import Problem
 from ..model.checks import objective_convexity
 from . import relaxation as rx
 from .branching import BranchContext, make_rule
-from .node import Node
+from .node import Node, transition
 from .pseudocost import Pseudocosts
 from .result import SearchResult, relative_gap
 from .selection import OpenList
@@ -87,15 +87,15 @@ class Search:
             return None
         return self.sign * v + self.problem.offset
 
-    def _feasible(self, x: np.ndarray) -> bool:
+    def _feasible(self, x: np.ndarray, *, check_columns: bool = True) -> bool:
+        """Rows (and column bounds) hold within the feasibility tolerance."""
         p, tol = self.problem, self.settings.feasibility_tolerance
-        if np.any(x < p.col_lower - tol) or np.any(x > p.col_upper + tol):
+        if check_columns and (np.any(x < p.col_lower - tol) or np.any(x > p.col_upper + tol)):
             return False
         if p.num_rows:
             act = p.A @ x
-            slack = tol * (1.0 + np.abs(act))
-            if np.any(act < p.row_lower - slack) or np.any(act > p.row_upper + slack):
-                return False
+            viol = np.maximum(p.row_lower - act, act - p.row_upper)
+            return bool((viol <= tol * (1.0 + np.abs(act))).all())
         return True
 
     def _min_objective(self, x: np.ndarray) -> float:
@@ -218,7 +218,8 @@ class Search:
             assert node is not None
 
             # ---- solve its relaxation
-            relax.load_bounds(node.bound_changes())
+            relax.change_bounds(transition(last_solved, node, relax.root_lower,
+                                           relax.root_upper))
             if node.parent is not last_solved:
                 relax.set_basis(node.basis)
             res = relax.solve()
@@ -236,6 +237,7 @@ class Search:
                          "branch": branch_of(node), "lp": lp, "bound": None,
                          "fractional": 0, "status": "", "branching": None, "message": None}
             after: list[Event] = []
+            closed_children: list[tuple[Node, float]] = []
             status: str
             if res.status == rx.UNBOUNDED and node.parent is None:
                 unbounded = True
@@ -276,10 +278,11 @@ class Search:
                         if s.rounding:
                             xr = x.copy()
                             xr[int_idx] = np.round(xi)
-                            if self._feasible(xr):
-                                val = self._min_objective(xr)
-                                if val < threshold():
-                                    after.extend(new_incumbent(val, xr, node, order, "rounding"))
+                            val = self._min_objective(xr)
+                            # Objective first: the row check is the dear part. Rounding a
+                            # value inside integral bounds stays inside them.
+                            if val < threshold() and self._feasible(xr, check_columns=False):
+                                after.extend(new_incumbent(val, xr, node, order, "rounding"))
                         if node.bound >= threshold():
                             status = "pruned"
                         else:
@@ -307,15 +310,39 @@ class Search:
                             children = self._children(node, dec, next_id, relax, pseudo,
                                                       ctx.basis, obj)
                             next_id += 2
-                            open_list.push_children(children)
-                            if s.select == "hybrid":
-                                plunge_from = [children[0] if s.down_first else children[1]]
+                            # A child the look-ahead already closed is reported at once
+                            # instead of being solved a second time.
+                            keep = []
+                            for child, seen in zip(children, (dec.down_bound, dec.up_bound),
+                                                   strict=True):
+                                if seen is not None and (seen == math.inf or seen >= threshold()):
+                                    closed_children.append((child, seen))
+                                else:
+                                    keep.append(child)
+                            open_list.push_children(keep)
+                            if s.select == "hybrid" and keep:
+                                plunge_from = [keep[0] if s.down_first or len(keep) == 1
+                                               else keep[1]]
             ev["status"] = status
             ev["time"] = now()
             if status != "branched":
                 tree_weight += 2.0 ** -node.depth
             yield ev
             yield from after
+            for child, seen in closed_children:
+                child_order = processed
+                processed += 1
+                tree_weight += 2.0 ** -child.depth
+                infeasible = seen == math.inf
+                yield {"kind": "node", "id": child.id, "parent": node.id, "depth": child.depth,
+                       "order": child_order, "time": now(), "branch": branch_of(child),
+                       "lp": {"status": "infeasible" if infeasible else "optimal",
+                              "objective": None if infeasible else self._user(seen),
+                              "iterations": 0, "seconds": 0.0},
+                       "bound": None if infeasible else self._user(max(seen, node.bound)),
+                       "fractional": 0, "status": "infeasible" if infeasible else "pruned",
+                       "branching": None,
+                       "message": "closed by the branching rule's look-ahead solve"}
             if unbounded:
                 stop_status = "unbounded"
                 break
@@ -365,7 +392,7 @@ class Search:
     def _children(self, node: Node, dec, next_id: int, relax: rx.Relaxation,
                   pseudo: Pseudocosts, basis: object | None, obj: float) -> list[Node]:
         j, v = dec.var, dec.value
-        lo, up = relax._loaded.get(j, (relax.root_lower[j], relax.root_upper[j]))
+        lo, up = float(relax.lower[j]), float(relax.upper[j])
         down = Node(next_id, node, node.depth + 1, node.bound)
         down.var, down.direction, down.lower, down.upper = j, 1, lo, math.floor(v)
         upc = Node(next_id + 1, node, node.depth + 1, node.bound)

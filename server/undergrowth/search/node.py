@@ -35,3 +35,36 @@ class Node:
                 out[node.var] = (node.lower, node.upper)
             node = node.parent
         return out
+
+
+def transition(old: Node | None, new: Node, root_lower, root_upper
+               ) -> dict[int, tuple[float, float]]:
+    """The column bounds to load when moving from ``old``'s bounds to ``new``'s.
+
+    Only the two paths below their deepest common ancestor can differ, so a
+    dive costs one step and a jump costs the two path lengths, not the depth.
+    """
+    if old is None:
+        return new.bound_changes()
+    a, b = old, new
+    old_side: set[int] = set()
+    new_side: dict[int, tuple[float, float]] = {}
+    while a is not b:
+        if a.depth >= b.depth:
+            if a.var >= 0:
+                old_side.add(a.var)
+            a = a.parent
+        else:
+            if b.var >= 0 and b.var not in new_side:
+                new_side[b.var] = (b.lower, b.upper)
+            b = b.parent
+    need = old_side.difference(new_side)
+    anc: Node | None = a
+    while need and anc is not None and anc.var >= 0:
+        if anc.var in need:
+            new_side[anc.var] = (anc.lower, anc.upper)
+            need.discard(anc.var)
+        anc = anc.parent
+    for j in need:
+        new_side[j] = (float(root_lower[j]), float(root_upper[j]))
+    return new_side

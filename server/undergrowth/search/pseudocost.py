@@ -10,30 +10,41 @@ import numpy as np
 
 
 class Pseudocosts:
-    """Per-variable, per-direction running means of gain / fractional change."""
+    """Per-variable, per-direction running means of gain / fractional change.
+
+    Means and the overall averages are kept up to date on each observation so
+    that scoring a node costs only a gather over its candidates.
+    """
 
     def __init__(self, num_cols: int) -> None:
         self.sum = np.zeros((2, num_cols))  # row 0: down, row 1: up
         self.count = np.zeros((2, num_cols), dtype=np.int64)
+        self.mean = np.zeros((2, num_cols))
+        self._total = [0.0, 0.0]
+        self._n = [0, 0]
 
     def update(self, var: int, direction: int, gain: float, change: float) -> None:
         """Record one observation; ``direction`` 0 = down, 1 = up."""
         if change <= 1e-12 or not np.isfinite(gain):
             return
-        self.sum[direction, var] += max(gain, 0.0) / change
-        self.count[direction, var] += 1
+        unit = max(gain, 0.0) / change
+        d = direction
+        self.sum[d, var] += unit
+        self.count[d, var] += 1
+        self.mean[d, var] = self.sum[d, var] / self.count[d, var]
+        self._total[d] += unit
+        self._n[d] += 1
+
+    def average(self, direction: int) -> float:
+        n = self._n[direction]
+        return self._total[direction] / n if n else 1.0
 
     def values(self, var: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
         """(ψ⁻, ψ⁺) for ``var``; variables never observed in a direction get the
-        average over the observed ones (1.0 when there are none)."""
+        average over all observations in that direction (1.0 when there are none)."""
         out = []
         for d in (0, 1):
-            cnt = self.count[d]
-            seen = cnt > 0
-            avg = float(self.sum[d, seen].sum() / cnt[seen].sum()) if seen.any() else 1.0
-            c = cnt[var]
-            psi = np.where(c > 0, self.sum[d, var] / np.maximum(c, 1), avg)
-            out.append(psi)
+            out.append(np.where(self.count[d, var] > 0, self.mean[d, var], self.average(d)))
         return out[0], out[1]
 
     def reliable(self, var: np.ndarray, threshold: int) -> np.ndarray:
