@@ -306,4 +306,5 @@ def _vector(label: str, value: object, size: int | None = None) -> np.ndarray:
 
 def _check_finite(label: str, arr: np.ndarray) -> None:
     if not np.all(np.isfinite(arr)):
-        raise ProblemError(f"{label}[{_first_bad(~np.isfinite(arr))}] is {arr[~np.isfinite(arr)][0]}")
+        k = _first_bad(~np.isfinite(arr))
+        raise ProblemError(f"{label}[{k}] is {arr[k]}")
