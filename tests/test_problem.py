@@ -59,3 +59,10 @@ def test_objective_value_includes_quadratic_and_offset():
     p = Problem.from_arrays([1, 1], Q=q, offset=3.0)
     # c·x + ½ xᵀQx + offset at x = (1, 2): 3 + ½(2 + 16) + 3 = 15 (by hand)
     assert p.objective_value(np.array([1.0, 2.0])) == pytest.approx(15.0)
+
+
+def test_with_bounds_copies_and_validates():
+    p = Problem.from_arrays([1.0, 1.0], [[1.0, 1.0]], row_upper=[3.0], integrality=[1, 1])
+    q = p.with_bounds(np.array([1.0, 0.0]), np.array([2.5, 1.0]))
+    assert q.col_upper.tolist() == [2.0, 1.0]  # integer bound rounded inward (common practice)
+    assert p.col_upper.tolist() == [np.inf, np.inf]

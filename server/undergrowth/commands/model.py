@@ -50,16 +50,8 @@ def run(args: argparse.Namespace) -> int:
 
 
 def _read(path: str) -> Problem:
-    try:
-        from ..model.io import read_model
-    except ModuleNotFoundError as exc:
-        # the MPS reader and the dispatcher in model.io are built separately; until
-        # they are present the JSON format still works
-        if exc.name != "undergrowth.model.io" or not path.lower().endswith(".json"):
-            raise
-        from ..model.jsonmodel import read_json_model
+    from ..model.io import read_model
 
-        return read_json_model(path)
     return read_model(path)
 
 

@@ -130,7 +130,7 @@ class Problem:
         c = _vector("c", self.c)
         if not sp.issparse(self.A):
             raise ProblemError("A: expected a scipy.sparse matrix (use Problem.from_arrays)")
-        A = sp.csr_matrix(self.A, dtype=float)
+        A = sp.csr_matrix(self.A, dtype=float, copy=True)  # ours to freeze
         A.sum_duplicates()
         A.eliminate_zeros()
         m = A.shape[0]
@@ -196,7 +196,7 @@ class Problem:
         if Q is not None:
             if not sp.issparse(Q):
                 raise ProblemError("Q: expected a scipy.sparse matrix (use Problem.from_arrays)")
-            Q = sp.csr_matrix(Q, dtype=float)
+            Q = sp.csr_matrix(Q, dtype=float, copy=True)
             Q.sum_duplicates()
             Q.eliminate_zeros()
             if Q.shape != (n, n):
