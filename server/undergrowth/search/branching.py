@@ -17,6 +17,8 @@ from .pseudocost import Pseudocosts
 from .relaxation import CUTOFF, INFEASIBLE, ITERATION_LIMIT, OPTIMAL, Relaxation
 
 EPSILON = 1e-6
+# Scores this close (relative) to the best count as tied; ties go to the lowest index.
+TIE_TOLERANCE = 1e-9
 # Gain credited to a child that is infeasible or cannot beat the incumbent: it
 # is "as good as it gets", but kept finite so scores stay printable.
 CLOSED_CHILD_GAIN = 1e12
@@ -58,10 +60,15 @@ def fractionality(values: np.ndarray) -> np.ndarray:
 
 def _pick(candidates: np.ndarray, scores: np.ndarray, values: np.ndarray,
           *, largest: bool = True) -> BranchDecision:
-    """Best score, ties to the lowest index (candidates are ascending); runner-up kept."""
-    order = np.argsort(-scores if largest else scores, kind="stable")
-    best = int(order[0])
-    runner = (int(candidates[order[1]]), float(scores[order[1]])) if len(order) > 1 else None
+    """Best score, ties to the lowest index (candidates are ascending); runner-up kept.
+    Scores within TIE_TOLERANCE (relative) of the best tie: relaxation round-off
+    (0.2500000000000004 against 0.25) must not decide."""
+    key = -scores if largest else scores
+    order = np.argsort(key, kind="stable")
+    top = key[order[0]]
+    best = int(np.flatnonzero(key <= top + TIE_TOLERANCE * abs(top))[0])
+    rest = order[order != best]
+    runner = (int(candidates[rest[0]]), float(scores[rest[0]])) if len(rest) else None
     return BranchDecision(int(candidates[best]), float(values[best]), float(scores[best]),
                           runner_up=runner)
 

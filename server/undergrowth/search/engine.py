@@ -120,6 +120,7 @@ class Search:
         lp_iterations = 0
         lp_seconds = 0.0
         failed = 0
+        failed_bound = math.inf  # best inherited bound among failed nodes (unexplored)
         tree_weight = 0.0
         next_id = 1
         stop_status: str | None = None
@@ -134,10 +135,12 @@ class Search:
 
         def threshold() -> float:
             """A node whose bound reaches this cannot beat the incumbent."""
+            if incumbent == math.inf:  # inf - tol * inf would be NaN, which compares False
+                return math.inf
             return incumbent - s.prune_tolerance * max(1.0, abs(incumbent))
 
         def dual_min() -> float:
-            return min(open_list.min_bound(), incumbent)
+            return min(open_list.min_bound(), incumbent, failed_bound)
 
         def progress() -> Event:
             d = dual_min() if (processed or len(open_list)) else -math.inf
@@ -231,9 +234,11 @@ class Search:
             lp_seconds += res.seconds
             lp = {"status": res.status, "objective": None, "iterations": res.iterations,
                   "seconds": res.seconds}
+            # Stamped when the relaxation answered, so the incumbent and child events
+            # that follow it in the stream never carry an earlier time.
             ev: Event = {"kind": "node", "id": node.id,
                          "parent": node.parent.id if node.parent else None,
-                         "depth": node.depth, "order": order, "time": 0.0,
+                         "depth": node.depth, "order": order, "time": now(),
                          "branch": branch_of(node), "lp": lp, "bound": None,
                          "fractional": 0, "status": "", "branching": None, "message": None}
             after: list[Event] = []
@@ -249,6 +254,7 @@ class Search:
                 lp["status"] = "failed"
                 ev["message"] = res.message or "the relaxation solver gave no usable answer"
                 failed += 1
+                failed_bound = min(failed_bound, node.bound)
             elif res.status == rx.INFEASIBLE:
                 status = "infeasible"
             else:
@@ -273,7 +279,11 @@ class Search:
                         status = "integral"
                         xs = x.copy()
                         xs[int_idx] = np.round(xi)
-                        after.extend(new_incumbent(obj, xs, node, order, "integral"))
+                        # value at the snapped point: users check it against their own
+                        # evaluation, and it drops the relaxation's round-off
+                        val = self._min_objective(xs)
+                        if val < threshold():
+                            after.extend(new_incumbent(val, xs, node, order, "integral"))
                     else:
                         if s.rounding:
                             xr = x.copy()
@@ -324,7 +334,6 @@ class Search:
                                 plunge_from = [keep[0] if s.down_first or len(keep) == 1
                                                else keep[1]]
             ev["status"] = status
-            ev["time"] = now()
             if status != "branched":
                 tree_weight += 2.0 ** -node.depth
             yield ev
@@ -355,17 +364,18 @@ class Search:
         if stop_status is None:
             status = "incomplete" if failed else (
                 "optimal" if math.isfinite(incumbent) else "infeasible")
-            final_dual = incumbent
+            final_dual = min(incumbent, failed_bound)  # a failed node's region is unexplored
         else:
             status = stop_status
             final_dual = -math.inf if unbounded else dual_min()
+        left_open = len(open_list)  # reported as open nodes, so the snapshot counts them
         for left in open_list.drain():
             yield leaf_event(left, "open")
         seconds = now()
         objective = self._user(incumbent)
         dual_user = self._user(final_dual)
         gap = relative_gap(objective, dual_user)
-        yield {"kind": "progress", "time": seconds, "nodes": processed, "open": 0,
+        yield {"kind": "progress", "time": seconds, "nodes": processed, "open": left_open,
                "dual_bound": dual_user, "primal_bound": objective, "gap": gap,
                "tree_weight": tree_weight}
         complete = stop_status is None and not failed

@@ -7,6 +7,9 @@ stored basis (not when diving into a child of the node just solved).
 
 from __future__ import annotations
 
+import os
+import sys
+import threading
 import time
 from dataclasses import dataclass
 
@@ -38,6 +41,33 @@ class RelaxationResult:
     message: str = ""
 
 
+_banner_lock = threading.Lock()
+_banner_done = False
+
+
+def new_highs() -> highspy.Highs:
+    """A silent `Highs` object. HiGHS prints a banner on stdout when the first one
+    in a process is built, which would corrupt `--json` output; hide it."""
+    global _banner_done
+    with _banner_lock:
+        if _banner_done:
+            h = highspy.Highs()
+        else:
+            sys.stdout.flush()
+            saved = os.dup(1)
+            devnull = os.open(os.devnull, os.O_WRONLY)
+            try:
+                os.dup2(devnull, 1)
+                h = highspy.Highs()
+            finally:
+                os.dup2(saved, 1)
+                os.close(saved)
+                os.close(devnull)
+            _banner_done = True
+    h.setOptionValue("output_flag", False)
+    return h
+
+
 def _finite(a: np.ndarray) -> np.ndarray:
     """Infinite bounds as HiGHS's own infinity (the same value in current highspy)."""
     return np.clip(np.asarray(a, dtype=float), -INF, INF)
@@ -50,8 +80,7 @@ class Relaxation:
         self.problem = problem
         self.sign = 1.0 if problem.sense == "min" else -1.0
         self.quadratic = problem.Q is not None
-        h = highspy.Highs()
-        h.setOptionValue("output_flag", False)
+        h = new_highs()
         # One thread: highspy otherwise re-reads the CPU topology on every run()
         # (measured 100 µs -> 27 µs per tiny LP here; see benchmarks/node_throughput.py).
         h.setOptionValue("threads", threads)
