@@ -37,6 +37,22 @@ def knapsack(seed: int, n: int = 14) -> Problem:
     )
 
 
+def hard_knapsack(seed: int, n: int = 100) -> Problem:
+    """A strongly correlated knapsack (value = weight + 10% of the weight range),
+    a long-known hard case for plain branch-and-bound (from memory: Martello &
+    Toth, Knapsack Problems, 1990); for throughput measurements on long trees."""
+    rng = _rng(seed)
+    w = rng.integers(100, 1000, size=n).astype(float)
+    v = w + 100.0
+    cap = float(np.floor(0.5 * w.sum()))
+    return Problem.from_arrays(
+        v, w.reshape(1, -1), row_upper=[cap], col_upper=np.ones(n),
+        integrality=np.ones(n), sense="max",
+        col_names=[f"take{j}" for j in range(n)], row_names=["capacity"],
+        name=f"hard-knapsack-s{seed}-n{n}",
+    )
+
+
 def multi_knapsack(seed: int, n: int = 12, m: int = 3) -> Problem:
     """max v·x subject to m weight rows W x ≤ cap, x binary."""
     rng = _rng(seed)

@@ -64,11 +64,14 @@ def _pick(candidates: np.ndarray, scores: np.ndarray, values: np.ndarray,
     Scores within TIE_TOLERANCE (relative) of the best tie: relaxation round-off
     (0.2500000000000004 against 0.25) must not decide."""
     key = -scores if largest else scores
-    order = np.argsort(key, kind="stable")
-    top = key[order[0]]
-    best = int(np.flatnonzero(key <= top + TIE_TOLERANCE * abs(top))[0])
-    rest = order[order != best]
-    runner = (int(candidates[rest[0]]), float(scores[rest[0]])) if len(rest) else None
+    top = key.min()
+    best = int(np.argmax(key <= top + TIE_TOLERANCE * abs(top)))  # first index within ties
+    runner = None
+    if len(key) > 1:
+        others = key.copy()
+        others[best] = np.inf
+        r = int(np.argmin(others))  # argmin keeps the first of equal keys
+        runner = (int(candidates[r]), float(scores[r]))
     return BranchDecision(int(candidates[best]), float(values[best]), float(scores[best]),
                           runner_up=runner)
 

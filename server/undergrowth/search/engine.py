@@ -58,6 +58,10 @@ class Search:
         self._start = None if start is None else np.asarray(start, dtype=float)
         self.result: SearchResult | None = None
         self._int_idx = np.flatnonzero(problem.integrality)
+        # Small matrices are multiplied dense: scipy's sparse product costs tens of
+        # µs in call overhead, more than the arithmetic (rounding checks each node).
+        size = problem.num_rows * problem.num_cols
+        self._A_dense = problem.A.toarray() if size <= 250_000 else None
 
     # ---------------------------------------------------------------- API
     def cancel(self) -> None:
@@ -93,7 +97,7 @@ class Search:
         if check_columns and (np.any(x < p.col_lower - tol) or np.any(x > p.col_upper + tol)):
             return False
         if p.num_rows:
-            act = p.A @ x
+            act = self._A_dense @ x if self._A_dense is not None else p.A @ x
             viol = np.maximum(p.row_lower - act, act - p.row_upper)
             return bool((viol <= tol * (1.0 + np.abs(act))).all())
         return True

@@ -1,0 +1,134 @@
+"""Nodes per second of the engine against a naive baseline, on the same trees.
+
+The baseline re-solves every node of the engine's own tree from scratch with
+`scipy.optimize.linprog` (HiGHS behind it, no warm start), so both sides do
+exactly the same nodes. Also printed: the engine's own Python work per node
+(wall time outside HiGHS's run()) and the effect of two HiGHS options.
+
+    python benchmarks/node_throughput.py [--nodes 1500] [--quick]
+"""
+
+from __future__ import annotations
+
+import argparse
+import sys
+import time
+from pathlib import Path
+
+import numpy as np
+from scipy.optimize import linprog
+
+sys.path.insert(0, str(Path(__file__).resolve().parent.parent / "tests"))
+from families import facility_location, hard_knapsack, set_cover  # noqa: E402
+from undergrowth.search import Search, SearchSettings  # noqa: E402
+
+
+def engine_run(problem, rule: str, nodes: int):
+    s = SearchSettings(branching=rule, select="best-bound", node_limit=nodes, gap=0,
+                       absolute_gap=0, rounding=True)
+    search = Search(problem, s)
+    t0 = time.perf_counter()
+    events = list(search.events())
+    wall = time.perf_counter() - t0
+    r = search.result
+    return events, wall, r
+
+
+def baseline_replay(problem, events) -> tuple[float, int]:
+    """Solve each processed node's LP from scratch; returns (seconds, nodes)."""
+    sign = 1.0 if problem.sense == "min" else -1.0
+    c = sign * np.asarray(problem.c)
+    A = problem.A
+    rl, ru = problem.row_lower, problem.row_upper
+    ub_rows = np.isfinite(ru)
+    lb_rows = np.isfinite(rl)
+    A_ub = A[np.flatnonzero(ub_rows)]
+    A_lb = -A[np.flatnonzero(lb_rows)]
+    import scipy.sparse as sp
+    A_all = sp.vstack([A_ub, A_lb]).tocsr()
+    b_all = np.concatenate([ru[ub_rows], -rl[lb_rows]])
+    by_id = {}
+    nodes = [e for e in events if e["kind"] == "node"]
+    for e in nodes:
+        by_id[e["id"]] = e
+    solved = [e for e in nodes if e["order"] is not None]
+    solved.sort(key=lambda e: e["order"])
+    t0 = time.perf_counter()
+    for e in solved:
+        lo = np.array(problem.col_lower, dtype=float)
+        up = np.array(problem.col_upper, dtype=float)
+        path = []
+        cur = e
+        while cur is not None and cur["branch"] is not None:
+            path.append(cur["branch"])
+            cur = by_id.get(cur["parent"])
+        for br in reversed(path):  # root first, so deeper changes win
+            if br["dir"] == "down":
+                up[br["var"]] = min(up[br["var"]], br["value"])
+            else:
+                lo[br["var"]] = max(lo[br["var"]], br["value"])
+        linprog(c, A_ub=A_all, b_ub=b_all, bounds=np.column_stack([lo, up]), method="highs")
+    return time.perf_counter() - t0, len(solved)
+
+
+def measure_options(problem, nodes: int) -> list[tuple[str, float]]:
+    """Nodes per second with threads=1 (our default) against the library default."""
+    from undergrowth.search import relaxation as rx
+
+    out = []
+    original = rx.Relaxation.__init__
+
+    for label, threads in (("threads=1 (default here)", 1), ("threads unset", None)):
+        def patched(self, problem, *, threads=threads, _orig=original):
+            _orig(self, problem)
+            if threads is None:
+                self._h.resetOptions()
+                self._h.setOptionValue("output_flag", False)
+                self._h.setOptionValue("presolve", "off")
+
+        rx.Relaxation.__init__ = patched
+        try:
+            _, wall, r = engine_run(problem, "most-fractional", nodes)
+        finally:
+            rx.Relaxation.__init__ = original
+        out.append((label, r.nodes / wall))
+    return out
+
+
+def main() -> None:
+    ap = argparse.ArgumentParser()
+    ap.add_argument("--nodes", type=int, default=1500)
+    ap.add_argument("--quick", action="store_true", help="fewer, smaller models")
+    args = ap.parse_args()
+    models = [
+        ("knapsack-50", hard_knapsack(1, 50)),
+        ("knapsack-100", hard_knapsack(2, 100)),
+        ("knapsack-200", hard_knapsack(3, 200)),
+        ("facility-15x12", facility_location(9, 15, 12)),
+        ("facility-20x8", facility_location(10, 20, 8)),
+        ("set-cover-100x200", set_cover(7, 100, 200, 5)),
+    ]
+    if args.quick:
+        models = models[:1] + models[3:4] + models[5:]
+    rules = ("most-fractional", "pseudocost")
+    print(f"{'model':<18}{'rule':<17}{'nodes':>7}{'engine n/s':>12}{'baseline n/s':>14}"
+          f"{'ratio':>7}{'py µs/node':>12}{'outside HiGHS':>15}")
+    for name, problem in models:
+        for rule in rules:
+            events, wall, r = engine_run(problem, rule, args.nodes)
+            base_s, base_n = baseline_replay(problem, events)
+            eng_rate = r.nodes / wall
+            base_rate = base_n / base_s
+            py_us = (wall - r.lp_seconds) / max(r.nodes, 1) * 1e6
+            share = (wall - r.lp_seconds) / wall
+            print(f"{name:<18}{rule:<17}{r.nodes:>7}{eng_rate:>12.0f}{base_rate:>14.0f}"
+                  f"{eng_rate / base_rate:>6.1f}x{py_us:>12.0f}{100 * share:>14.0f}%")
+    print()
+    print("HiGHS threads option, most-fractional, knapsack-100:")
+    for label, rate in measure_options(models[1][1] if not args.quick else models[0][1],
+                                       args.nodes):
+        print(f"  {label:<28}{rate:>8.0f} nodes/s")
+
+
+if __name__ == "__main__":
+    main()
