@@ -12,8 +12,8 @@ import math
 
 import numpy as np
 import pytest
-from families import facility_location, knapsack, small_miqp
 
+from families import facility_location, knapsack, small_miqp
 from undergrowth.analysis.table import RunTable
 from undergrowth.record import Recorder
 from undergrowth.runlog import RunLogWriter, read_run
