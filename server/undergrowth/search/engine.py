@@ -58,6 +58,8 @@ class Search:
         self._start = None if start is None else np.asarray(start, dtype=float)
         self.result: SearchResult | None = None
         self._int_idx = np.flatnonzero(problem.integrality)
+        self._c_min = self.sign * np.asarray(problem.c, dtype=float)
+        self._q_min = None if problem.Q is None else self.sign * problem.Q
         # Small matrices are multiplied dense: scipy's sparse product costs tens of
         # µs in call overhead, more than the arithmetic (rounding checks each node).
         size = problem.num_rows * problem.num_cols
@@ -103,7 +105,11 @@ class Search:
         return True
 
     def _min_objective(self, x: np.ndarray) -> float:
-        return self.sign * (self.problem.objective_value(x) - self.problem.offset)
+        """Objective at ``x`` in minimisation form, without the offset."""
+        val = float(self._c_min @ x)
+        if self._q_min is not None:
+            val += 0.5 * float(x @ (self._q_min @ x))
+        return val
 
     # -------------------------------------------------------------- search
     def events(self) -> Iterator[Event]:
@@ -276,13 +282,14 @@ class Search:
                 else:
                     x = res.x
                     xi = x[int_idx]
-                    frac_mask = np.abs(xi - np.round(xi)) > int_tol
+                    ri = np.rint(xi)
+                    frac_mask = np.abs(xi - ri) > int_tol
                     nfrac = int(frac_mask.sum())
                     ev["fractional"] = nfrac
                     if nfrac == 0:
                         status = "integral"
                         xs = x.copy()
-                        xs[int_idx] = np.round(xi)
+                        xs[int_idx] = ri
                         # value at the snapped point: users check it against their own
                         # evaluation, and it drops the relaxation's round-off
                         val = self._min_objective(xs)
@@ -291,7 +298,7 @@ class Search:
                     else:
                         if s.rounding:
                             xr = x.copy()
-                            xr[int_idx] = np.round(xi)
+                            xr[int_idx] = ri
                             val = self._min_objective(xr)
                             # Objective first: the row check is the dear part. Rounding a
                             # value inside integral bounds stays inside them.

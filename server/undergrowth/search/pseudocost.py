@@ -6,6 +6,8 @@ mixed-integer linear programming", Mathematical Programming 1 (1971).
 
 from __future__ import annotations
 
+import math
+
 import numpy as np
 
 
@@ -25,13 +27,15 @@ class Pseudocosts:
 
     def update(self, var: int, direction: int, gain: float, change: float) -> None:
         """Record one observation; ``direction`` 0 = down, 1 = up."""
-        if change <= 1e-12 or not np.isfinite(gain):
+        if change <= 1e-12 or not math.isfinite(gain):
             return
         unit = max(gain, 0.0) / change
         d = direction
-        self.sum[d, var] += unit
-        self.count[d, var] += 1
-        self.mean[d, var] = self.sum[d, var] / self.count[d, var]
+        total = float(self.sum[d, var]) + unit
+        n = int(self.count[d, var]) + 1
+        self.sum[d, var] = total
+        self.count[d, var] = n
+        self.mean[d, var] = total / n
         self._total[d] += unit
         self._n[d] += 1
 
