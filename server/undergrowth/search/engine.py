@@ -123,6 +123,7 @@ class Search:
         open_list = OpenList(s.select, down_first=s.down_first)
         int_idx = self._int_idx
         int_tol = s.integrality_tolerance
+        sign, offset = self.sign, p.offset
 
         incumbent = math.inf  # minimisation form, no offset
         inc_x: np.ndarray | None = None
@@ -210,10 +211,11 @@ class Search:
             if s.time_limit is not None and now() >= s.time_limit:
                 stop_status = "time-limit"
                 break
-            if math.isfinite(incumbent):
+            if incumbent < math.inf:
                 d = dual_min()
-                gap = relative_gap(self._user(incumbent), self._user(d))
-                if (incumbent - d <= s.absolute_gap) or (gap is not None and gap <= s.gap):
+                diff = incumbent - d  # = |primal − dual| in the model's sense too
+                if diff <= s.absolute_gap or diff <= s.gap * max(
+                        abs(sign * incumbent + offset), abs(sign * d + offset), 1e-10):
                     stop_status = "gap-reached"
                     break
 

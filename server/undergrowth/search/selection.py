@@ -23,6 +23,8 @@ class OpenList:
         self._bounds: list[tuple[float, int, Node]] = []
         self._seq = itertools.count()
         self._size = 0
+        # best-bound and hybrid pop by bound already: the main heap gives the dual bound
+        self._by_bound = order in ("best-bound", "hybrid")
 
     def __len__(self) -> int:
         return self._size
@@ -48,7 +50,8 @@ class OpenList:
         seq = next(self._seq)
         node.in_open = True
         heapq.heappush(self._heap, (self._priority(node, seq), node.id, node))
-        heapq.heappush(self._bounds, (node.bound, node.id, node))
+        if not self._by_bound:
+            heapq.heappush(self._bounds, (node.bound, node.id, node))
         self._size += 1
 
     def pop(self) -> Node | None:
@@ -69,6 +72,11 @@ class OpenList:
         return node
 
     def min_bound(self) -> float:
+        if self._by_bound:
+            h = self._heap
+            while h and not h[0][2].in_open:
+                heapq.heappop(h)
+            return h[0][0][0] if h else float("inf")
         b = self._bounds
         while b and not b[0][2].in_open:
             heapq.heappop(b)
