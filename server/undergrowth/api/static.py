@@ -1,0 +1,57 @@
+"""The web front end at ``/`` and plotly.js from the installed plotly package."""
+
+from __future__ import annotations
+
+from importlib.util import find_spec
+from pathlib import Path
+
+from fastapi import FastAPI
+from fastapi.responses import FileResponse, HTMLResponse, Response
+from fastapi.staticfiles import StaticFiles
+
+from .errors import NotFound
+
+__all__ = ["mount_static", "plotly_path"]
+
+_PLACEHOLDER = """<!doctype html>
+<html lang="en"><head><meta charset="utf-8"><title>Undergrowth</title></head>
+<body style="font-family: system-ui, sans-serif; max-width: 40em; margin: 3em auto">
+<h1>Undergrowth</h1>
+<p>The server is running, but the web front end is not installed here yet.</p>
+<p>The API is all there: see <a href="/docs">/docs</a> (interactive) or
+<a href="/api/runs">/api/runs</a>.</p>
+</body></html>
+"""
+
+
+def plotly_path() -> Path | None:
+    """``plotly/package_data/plotly.min.js`` of the installed plotly package."""
+    spec = find_spec("plotly")
+    if spec is None or spec.origin is None:
+        return None
+    path = Path(spec.origin).parent / "package_data" / "plotly.min.js"
+    return path if path.is_file() else None
+
+
+def mount_static(app: FastAPI, web_root: Path | None) -> None:
+    """Routes for ``/``, ``/vendor/plotly.min.js`` and every file under ``web_root``.
+    Call after the API routes: the file mount catches whatever they do not."""
+
+    @app.get("/vendor/plotly.min.js", include_in_schema=False)
+    async def plotly_js() -> Response:
+        path = plotly_path()
+        if path is None:
+            raise NotFound("plotly.min.js is not installed (pip install plotly)")
+        return FileResponse(path, media_type="text/javascript",
+                            headers={"Cache-Control": "public, max-age=86400"})
+
+    @app.get("/", include_in_schema=False)
+    async def index() -> Response:
+        page = None if web_root is None else web_root / "index.html"
+        if page is not None and page.is_file():
+            return FileResponse(page, media_type="text/html",
+                                headers={"Cache-Control": "no-cache"})
+        return HTMLResponse(_PLACEHOLDER)
+
+    if web_root is not None and web_root.is_dir():
+        app.mount("/", StaticFiles(directory=web_root, html=True, check_dir=False), name="web")
