@@ -3,14 +3,16 @@
 from __future__ import annotations
 
 import contextlib
+import gzip
 import math
+import threading
 import zlib
 from datetime import UTC, datetime
 from pathlib import Path
 from typing import Annotated, Any, Literal
 
 import anyio
-from fastapi import APIRouter, File, Query, UploadFile
+from fastapi import APIRouter, File, Query, Request, UploadFile
 from fastapi.responses import Response
 
 from ...analysis.layout import layout_for_table, table_layout
@@ -177,13 +179,56 @@ _TREE_CONTENT = {"application/json": {"schema": {"type": "object"}},
 async def get_tree(
     run_id: str,
     ctx: Ctx,
+    request: Request,
     format: Annotated[Literal["json", "bin"] | None, Query(
         description="json or bin; default json up to tree_json_nodes nodes, else bin")] = None,
 ) -> Response:
     check_id(run_id)
     rf = ctx.library.require(run_id)
-    body, media = await anyio.to_thread.run_sync(_tree, ctx, rf, format)
-    return Response(body, media_type=media)
+    gzip_ok = "gzip" in request.headers.get("accept-encoding", "").lower()
+    body, media, encoded = await anyio.to_thread.run_sync(_tree_body, ctx, rf, format, gzip_ok)
+    headers = {"Content-Encoding": "gzip", "Vary": "Accept-Encoding"} if encoded else None
+    return Response(body, media_type=media, headers=headers)
+
+
+# Compressed tree bodies per (run, file version, format): the arrays of a large
+# finished run are sent many times (each viewer, each reload) and gzip is most of
+# the cost, so it is done once, off the event loop, at a fast level.
+_GZIP_LEVEL = 1
+_GZIP_KEEP = 8  # bodies kept (a handful of large runs)
+_gzip_lock = threading.Lock()
+
+
+def _gzip_memo(ctx: ServerContext) -> dict[tuple[str, str, object, str], tuple[bytes, str]]:
+    """This app's memo (one per server context, so apps never share bodies)."""
+    memo = getattr(ctx, "_tree_gzip", None)
+    if memo is None:
+        memo = {}
+        object.__setattr__(ctx, "_tree_gzip", memo)
+    return memo
+
+
+def _tree_body(ctx: ServerContext, rf: RunFile, fmt: str | None, gzip_ok: bool
+               ) -> tuple[bytes, str, bool]:
+    """(body, media type, gzip-encoded?) for the tree route."""
+    live = ctx.library.live(rf)
+    key = (rf.source, rf.id, rf.stamp(), str(fmt))
+    if gzip_ok and not live:
+        with _gzip_lock:
+            hit = _gzip_memo(ctx).get(key)
+        if hit is not None:
+            return hit[0], hit[1], True
+    body, media = _tree(ctx, rf, fmt)
+    if not gzip_ok or len(body) < 1024:
+        return body, media, False
+    packed = gzip.compress(body, compresslevel=_GZIP_LEVEL)
+    if not live:
+        with _gzip_lock:
+            memo = _gzip_memo(ctx)
+            if len(memo) >= _GZIP_KEEP:
+                memo.pop(next(iter(memo)))
+            memo[key] = (packed, media)
+    return packed, media, True
 
 
 def _node(ctx: ServerContext, rf: RunFile, node_id: int) -> dict[str, Any]:
