@@ -6,15 +6,12 @@ from dataclasses import dataclass
 
 import numpy as np
 
-STATUSES = ("optimal", "infeasible", "unbounded", "gap-reached", "node-limit", "time-limit",
-            "cancelled", "incomplete")
+# The status words and the gap formula are the run log's (stdlib-only constants,
+# so the engine stays free of pydantic): one definition for engine, file and API.
+from ..runlog.codes import END_STATUSES as STATUSES
+from ..runlog.codes import gap as relative_gap
 
-
-def relative_gap(primal: float | None, dual: float | None) -> float | None:
-    """|primal − dual| / max(|primal|, |dual|, 1e-10); None while either is missing."""
-    if primal is None or dual is None:
-        return None
-    return abs(primal - dual) / max(abs(primal), abs(dual), 1e-10)
+__all__ = ["STATUSES", "SearchResult", "relative_gap"]
 
 
 @dataclass(frozen=True, slots=True)
