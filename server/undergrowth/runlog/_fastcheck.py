@@ -102,12 +102,17 @@ def node_ok(d: dict[str, Any]) -> bool:
         ):
             return False
         r = g["runner_up"]
-        return r is none or (
+        if not (r is none or (
             type(r) is dict
             and _count(r["var"])
             and type(r["name"]) is str
             and _opt_number(r["score"])
-        )
+        )):
+            return False
+        c = g.get("candidates")
+        return c is none or (type(c) is list and all(
+            type(p) is list and len(p) == 2 and _count(p[0]) and type(p[1]) in _NUMBER
+            for p in c))
     except (KeyError, TypeError):  # a missing field, or a field of the wrong shape
         return False
 

@@ -126,6 +126,11 @@ class Branching(_Line):
     down_bound: float | None = Field(description="Look-ahead bound of the down child, if any.")
     up_bound: float | None = Field(description="Look-ahead bound of the up child, if any.")
     runner_up: RunnerUp | None
+    candidates: list[tuple[Count, float]] | None = Field(
+        default=None,
+        description="Optional: the first fractional integer columns as [column, value] "
+        "pairs, lowest index first (the engine keeps up to 8; `fractional` has the count).",
+    )
 
 
 class NodeEvent(_Line):

@@ -30,6 +30,7 @@ from .settings import SearchSettings
 
 Event = dict[str, object]
 _DIRECTION = {1: "down", 2: "up"}
+CANDIDATES_KEPT = 8  # fractional candidates recorded per branched node (lowest index first)
 
 
 class NonConvexObjectiveError(ValueError):
@@ -329,6 +330,10 @@ class Search:
                                     "name": p.col_names[dec.runner_up[0]],
                                     "score": dec.runner_up[1]},
                                 "lookahead_iterations": dec.lookahead_iterations,
+                                # the first few fractional candidates, for narration
+                                "candidates": [[int(j), float(v)] for j, v in
+                                               zip(cand[:CANDIDATES_KEPT],
+                                                   x[cand[:CANDIDATES_KEPT]], strict=True)],
                             }
                             children = self._children(node, dec, next_id, relax, pseudo,
                                                       ctx.basis, obj)
