@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import re
 from pathlib import Path
 
 from test_api_support import client_for
@@ -30,3 +31,17 @@ def test_plotly_is_sent_compressed_once_and_equal_to_the_package_file(tmp_path: 
     assert plain.status_code == 200
     assert "content-encoding" not in plain.headers
     assert plain.content == original
+
+
+def test_the_interactive_api_page_loads_nothing_from_outside(tmp_path: Path) -> None:
+    client = client_for(tmp_path)
+    page = client.get("/docs")
+    assert page.status_code == 200
+    assert "http://" not in page.text and "https://" not in page.text
+    links = re.findall(r'(?:src|href)="([^"]+)"', page.text)
+    assert sorted(links) == ["/icon.svg", "/vendor/swagger/swagger-ui-bundle.js",
+                             "/vendor/swagger/swagger-ui.css"]
+    for link in links:
+        assert client.get(link).status_code == 200, link
+    assert "/openapi.json" in page.text
+    assert client.get("/vendor/swagger/../../secret").status_code == 404

@@ -56,7 +56,7 @@ def create_app(settings: ApiSettings | None = None) -> FastAPI:
         await ctx.jobs.close()
 
     app = FastAPI(title="Undergrowth", version=__version__, description=DESCRIPTION,
-                  lifespan=lifespan, docs_url="/docs", redoc_url=None,
+                  lifespan=lifespan, docs_url=None, redoc_url=None,  # /docs: static.py
                   openapi_url="/openapi.json")
     app.state.undergrowth = ctx
     install_error_handlers(app)

@@ -9,12 +9,17 @@ from pathlib import Path
 
 import anyio
 from fastapi import FastAPI, Request
+from fastapi.openapi.docs import get_swagger_ui_html
 from fastapi.responses import FileResponse, HTMLResponse, Response
 from fastapi.staticfiles import StaticFiles
 
 from .errors import NotFound
 
-__all__ = ["mount_static", "plotly_path"]
+__all__ = ["mount_static", "plotly_path", "swagger_ui_dir"]
+
+# The interactive API page's assets, served from the fastapi-offline package so that
+# /docs works offline like the rest of the inspector (FastAPI's default loads a CDN).
+SWAGGER_ASSETS = {"swagger-ui-bundle.js": "text/javascript", "swagger-ui.css": "text/css"}
 
 _PLACEHOLDER = """<!doctype html>
 <html lang="en"><head><meta charset="utf-8"><title>Undergrowth</title></head>
@@ -54,6 +59,15 @@ def gzipped_file(path: Path) -> bytes:
     return body
 
 
+def swagger_ui_dir() -> Path | None:
+    """The swagger-ui files shipped by the installed fastapi-offline package."""
+    spec = find_spec("fastapi_offline")
+    if spec is None or spec.origin is None:
+        return None
+    path = Path(spec.origin).parent / "static"
+    return path if (path / "swagger-ui-bundle.js").is_file() else None
+
+
 def mount_static(app: FastAPI, web_root: Path | None) -> None:
     """Routes for ``/``, ``/vendor/plotly.min.js`` and every file under ``web_root``.
     Call after the API routes: the file mount catches whatever they do not."""
@@ -69,6 +83,24 @@ def mount_static(app: FastAPI, web_root: Path | None) -> None:
             return Response(body, media_type="text/javascript",
                             headers={**headers, "Content-Encoding": "gzip"})
         return FileResponse(path, media_type="text/javascript", headers=headers)
+
+    @app.get("/docs", include_in_schema=False)
+    async def api_page() -> Response:
+        if swagger_ui_dir() is None:
+            return HTMLResponse(_PLACEHOLDER.replace("see <a href=\"/docs\">/docs</a> "
+                                                     "(interactive) or", "see"))
+        return get_swagger_ui_html(openapi_url="/openapi.json", title="Undergrowth API",
+                                   swagger_js_url="/vendor/swagger/swagger-ui-bundle.js",
+                                   swagger_css_url="/vendor/swagger/swagger-ui.css",
+                                   swagger_favicon_url="/icon.svg")
+
+    @app.get("/vendor/swagger/{name}", include_in_schema=False)
+    async def swagger_asset(name: str) -> Response:
+        folder = swagger_ui_dir()
+        if folder is None or name not in SWAGGER_ASSETS:
+            raise NotFound(f"no such file: /vendor/swagger/{name}")
+        return FileResponse(folder / name, media_type=SWAGGER_ASSETS[name],
+                            headers={"Cache-Control": "public, max-age=86400"})
 
     @app.get("/", include_in_schema=False)
     async def index() -> Response:
