@@ -18,28 +18,33 @@ import json
 import math
 import os
 import secrets
+from collections.abc import Callable
 from dataclasses import dataclass
 from typing import Any
 
 import numpy as np
 
+from ..analysis.reasons import status_reason
 from ..analysis.table import RunTable
 from ..runlog.codes import DIRECTIONS, LP_STATUSES, SOURCES, STATUSES
-from .reasons import status_reason
 
-__all__ = ["NodeExtras", "load_extras", "node_detail"]
+__all__ = ["NodeExtras", "load_extras", "node_detail", "node_events"]
 
 NO_LP = 255
-EXTRAS_FORMAT = 1
+EXTRAS_FORMAT = 2  # 2 added the fractional candidates (_CANDS)
 _FLOATS = ("lp_seconds", "score", "br_value", "down_bound", "up_bound", "runner_score")
 _INTS = ("br_var", "runner_var")
+# A branched node's recorded fractional candidates, ragged: row r holds
+# cand_var/cand_value[cand_start[r]:cand_start[r + 1]]; cand_has[r] is 0 for a row
+# whose event recorded none (older logs, nodes that did not branch).
+_CANDS = ("cand_start", "cand_has", "cand_var", "cand_value")
 
 
 @dataclass
 class NodeExtras:
     """Per-row fields of node events that the table does not hold."""
 
-    arrays: dict[str, np.ndarray]  # lp_status (uint8), rule (int16), _FLOATS, _INTS
+    arrays: dict[str, np.ndarray]  # lp_status (uint8), rule (int16), _FLOATS, _INTS, _CANDS
     rules: list[str]
     names: dict[int, str]
     messages: dict[int, str]
@@ -61,6 +66,10 @@ def build_extras(path: str) -> NodeExtras:
     rules: dict[str, int] = {}
     names: dict[int, str] = {}
     messages: dict[int, str] = {}
+    cand_start: list[int] = []
+    cand_has = bytearray()
+    cand_var: list[int] = []
+    cand_value: list[float] = []
     codes = {s: i for i, s in enumerate(LP_STATUSES)}
     row = 0
     was_enabled = gc.isenabled()
@@ -79,6 +88,8 @@ def build_extras(path: str) -> NodeExtras:
                 cols["br_var"].append(-1)
                 cols["runner_var"].append(-1)
                 rule.append(-1)
+                cand_start.append(len(cand_var))
+                cand_has.append(0)
             else:
                 cols["score"].append(_nan(b["score"]))
                 cols["br_value"].append(float(b["value"]))
@@ -92,6 +103,13 @@ def build_extras(path: str) -> NodeExtras:
                 if ru is not None:
                     names.setdefault(ru["var"], ru["name"])
                 rule.append(rules.setdefault(str(b["rule"]), len(rules)))
+                cands = b.get("candidates")
+                cand_start.append(len(cand_var))
+                cand_has.append(cands is not None)
+                if cands is not None:
+                    for j, v in cands:
+                        cand_var.append(int(j))
+                        cand_value.append(float(v))
             br = ev["branch"]
             if br is not None:
                 names.setdefault(br["var"], br["name"])
@@ -105,6 +123,10 @@ def build_extras(path: str) -> NodeExtras:
               "rule": np.asarray(rule, dtype=np.int16)}
     arrays.update({k: np.asarray(cols[k], dtype=np.float64) for k in _FLOATS})
     arrays.update({k: np.asarray(cols[k], dtype=np.int64) for k in _INTS})
+    arrays["cand_start"] = np.asarray(cand_start + [len(cand_var)], dtype=np.int64)
+    arrays["cand_has"] = np.frombuffer(bytes(cand_has), dtype=np.uint8).copy()
+    arrays["cand_var"] = np.asarray(cand_var, dtype=np.int64)
+    arrays["cand_value"] = np.asarray(cand_value, dtype=np.float64)
     return NodeExtras(arrays, list(rules), names, messages)
 
 
@@ -130,7 +152,7 @@ def _load(target: str, key: dict[str, Any]) -> NodeExtras | None:
             meta = json.loads(bytes(npz["meta"]).decode("utf-8"))
             if meta.get("key") != key:
                 return None
-            arrays = {k: npz[k] for k in ("lp_status", "rule", *_FLOATS, *_INTS)}
+            arrays = {k: npz[k] for k in ("lp_status", "rule", *_FLOATS, *_INTS, *_CANDS)}
         return NodeExtras(arrays, meta["rules"], {int(k): v for k, v in meta["names"].items()},
                           {int(k): v for k, v in meta["messages"].items()})
     except Exception:  # noqa: BLE001 - an unreadable cache is simply rebuilt
@@ -176,6 +198,15 @@ class _View:
                 "dir": DIRECTIONS[int(self.c["branch_dir"][r])],
                 "value": _f(self.c["branch_value"][r])}
 
+    def candidates(self, r: int) -> list[list[Any]] | None:
+        """The fractional [column, value] pairs the node's event recorded, or None."""
+        a = self.x.arrays
+        if r >= len(self.x) or not a["cand_has"][r]:
+            return None
+        start, stop = int(a["cand_start"][r]), int(a["cand_start"][r + 1])
+        return [[int(j), float(v)] for j, v in
+                zip(a["cand_var"][start:stop], a["cand_value"][start:stop], strict=True)]
+
     def branching(self, r: int) -> dict[str, Any] | None:
         a = self.x.arrays
         if r >= len(self.x) or a["br_var"][r] < 0:
@@ -183,12 +214,16 @@ class _View:
         var = int(a["br_var"][r])
         ru = int(a["runner_var"][r])
         code = int(a["rule"][r])
-        return {"var": var, "name": self.name(var), "value": _f(a["br_value"][r]),
+        out = {"var": var, "name": self.name(var), "value": _f(a["br_value"][r]),
                 "score": _f(a["score"][r]),
                 "rule": self.x.rules[code] if code >= 0 else None,
                 "down_bound": _f(a["down_bound"][r]), "up_bound": _f(a["up_bound"][r]),
                 "runner_up": None if ru < 0 else {"var": ru, "name": self.name(ru),
                                                   "score": _f(a["runner_score"][r])}}
+        cands = self.candidates(r)
+        if cands is not None:
+            out["candidates"] = cands
+        return out
 
     def lp(self, r: int) -> dict[str, Any] | None:
         if r >= len(self.x) or self.x.arrays["lp_status"][r] == NO_LP:
@@ -219,6 +254,13 @@ class _View:
                 "bound": _f(c["bound"][r]), "lp_objective": _f(c["lp_objective"][r]),
                 "iterations": int(c["iterations"][r]), "fractional": int(c["fractional"][r]),
                 "branching": b}
+
+
+def node_events(table: RunTable, extras: NodeExtras
+                ) -> tuple[Callable[[int], dict[str, Any]], dict[int, str]]:
+    """``event_of(row)`` rebuilding a node's full event, and the column names known."""
+    view = _View(table, extras)
+    return view.event, dict(view.names)
 
 
 def _incumbent_entry(table: RunTable, i: int) -> dict[str, Any]:
