@@ -1,6 +1,7 @@
 // The run library page: the runs with their key figures, uploads of runs and
 // models (errors show the line the server names), and starting a solve that
-// opens live in the inspector.
+// opens live in the inspector. Runs can be ticked and compared side by side, and
+// a comparison of several rules on one model can be started (compare.js shows both).
 
 import { api, ApiError } from './api.js';
 import { $, $all, el } from './dom.js';
@@ -16,16 +17,23 @@ const RESULT_BADGE = { optimal: 'good', 'gap-reached': 'good', infeasible: 'warn
   'node-limit': 'warn', 'time-limit': 'warn', cancelled: 'warn', incomplete: 'warn', failed: 'warn',
   unreadable: 'warn', running: 'live', queued: 'live' };
 
+const PICK_MIN = 2; // runs compared side by side (compare.js draws up to four trees)
+const PICK_MAX = 4;
+const GROUP_MAX = 12; // members of one comparison group (the server's limit)
+const GROUP_RULES = ['most-fractional', 'pseudocost', 'reliability']; // ticked at first
+
 export class LibraryPage {
-  constructor({ openRun }) {
+  constructor({ openRun, openCompare }) {
     this.openRun = openRun;
+    this.openCompare = openCompare;
     this.bound = false;
+    this.picked = new Set(); // run ids ticked for a comparison
   }
 
   async show() {
     if (!this.bound) this._bind();
     document.title = 'Undergrowth \u2014 run library';
-    await Promise.all([this.loadRuns(), this.loadSolveOptions()]);
+    await Promise.all([this.loadRuns(), this.loadSolveOptions(), this.loadGroups()]);
   }
 
   async loadRuns() {
@@ -33,7 +41,10 @@ export class LibraryPage {
     try {
       const runs = await api.runs();
       const list = Array.isArray(runs) ? runs : (runs.runs ?? []);
+      const known = new Set(list.map((r) => r.id));
+      for (const id of this.picked) if (!known.has(id)) this.picked.delete(id);
       this._renderRuns(list);
+      this._pickedChanged();
       const samples = list.filter((r) => r.source === 'samples').length;
       note.textContent = `${list.length} runs: ${samples} bundled samples, ${list.length - samples} ` +
         'of your own. Click a run to inspect it.';
@@ -47,12 +58,22 @@ export class LibraryPage {
       const open = () => this.openRun(r.id);
       const badge = RESULT_BADGE[r.status] ?? '';
       const when = r.created ? String(r.created).replace('T', ' ').slice(0, 16) : '';
+      const pick = el('input', { type: 'checkbox', checked: this.picked.has(r.id),
+        'aria-label': `Pick ${r.name ?? r.id} for a comparison` });
+      pick.addEventListener('change', () => {
+        if (pick.checked) this.picked.add(r.id);
+        else this.picked.delete(r.id);
+        this._pickedChanged();
+      });
       const tr = el('tr', { dataset: { run: r.id } },
+        el('td', { class: 'pick' }, pick),
         el('td', {}, el('a', { href: `#run=${encodeURIComponent(r.id)}`,
           'aria-label': `Inspect ${r.name ?? r.id}` }, r.model ?? r.id),
         ' ', el('span', { class: `badge ${r.source === 'samples' ? '' : 'own'}` },
           r.source === 'samples' ? 'sample' : 'yours'),
         r.source === 'samples' ? null : el('div', { class: 'muted small' }, when),
+        r.group ? el('a', { class: 'badge group', href: `#group=${encodeURIComponent(r.group)}`,
+          title: 'Open the comparison this run belongs to' }, 'comparison') : null,
         r.error ? el('div', { class: 'error small' }, r.error) : null),
         el('td', {}, r.branching ?? '\u2014'),
         el('td', {}, r.select ?? '\u2014'),
@@ -62,7 +83,7 @@ export class LibraryPage {
         el('td', { class: 'num' }, formatValue(r.dual_bound)),
         el('td', { class: 'num' }, formatGap(r.gap)));
       tr.addEventListener('click', (e) => {
-        if (e.target.closest('a')) return;
+        if (e.target.closest('a, input, td.pick')) return;
         open();
       });
       return tr;
@@ -79,6 +100,10 @@ export class LibraryPage {
       modelSel.replaceChildren(...list.filter((m) => !m.error).map((m) => el('option', { value: m.id },
         `${m.name ?? m.id}${m.rows !== null && m.rows !== undefined ? ` \u2014 ${m.rows}\u00d7${m.columns}, ${m.integers} integer` : ''}`)));
       if (keep) modelSel.value = keep;
+      const groupSel = $('groupModel');
+      const keepGroup = groupSel.value;
+      groupSel.replaceChildren(...Array.from(modelSel.options, (o) => o.cloneNode(true)));
+      if (keepGroup) groupSel.value = keepGroup;
     } catch (err) {
       this._solveError(`The models could not be listed: ${err.message}`);
     }
@@ -87,6 +112,7 @@ export class LibraryPage {
     const orders = ORDERS;
     $('solveRule').replaceChildren(...rules.map((v) => el('option', { value: v }, v)));
     $('solveOrder').replaceChildren(...orders.map((v) => el('option', { value: v }, v)));
+    this._groupChoices();
     $('solveRule').value = rules.includes('reliability') ? 'reliability' : rules[0];
     $('solveOrder').value = orders.includes('hybrid') ? 'hybrid' : orders[0];
   }
@@ -97,6 +123,15 @@ export class LibraryPage {
       e.preventDefault();
       this._startSolve();
     });
+    $('comparePicked').addEventListener('click', () => {
+      const ids = Array.from(this.picked);
+      if (ids.length >= PICK_MIN && ids.length <= PICK_MAX) this.openCompare({ compare: ids });
+    });
+    $('groupForm').addEventListener('submit', (e) => {
+      e.preventDefault();
+      this._startGroup();
+    });
+    $('groupForm').addEventListener('change', () => this._groupCount());
     $('uploadForm').addEventListener('submit', (e) => {
       e.preventDefault();
       this._upload();
@@ -128,6 +163,83 @@ export class LibraryPage {
     } finally {
       button.disabled = false;
     }
+  }
+
+  // ------------------------------------------------------------ comparisons
+  _pickedChanged() {
+    const n = this.picked.size;
+    const button = $('comparePicked');
+    button.disabled = n < PICK_MIN || n > PICK_MAX;
+    button.textContent = n ? `Compare ${n} picked` : 'Compare';
+    button.title = n > PICK_MAX ? `Pick at most ${PICK_MAX} runs` : `Tick ${PICK_MIN} to ${PICK_MAX} runs in the first column, then compare them side by side`;
+  }
+
+  _groupChoices() {
+    const boxes = (name, values, ticked) => values.map((v) => el('label', { class: 'cmp-choice' },
+      el('input', { type: 'checkbox', name, value: v, checked: ticked.includes(v) }), ` ${v}`));
+    $('groupRules').append(...boxes('group-rule', RULES, GROUP_RULES));
+    $('groupOrders').append(...boxes('group-order', ORDERS, ['hybrid']));
+    this._groupCount();
+  }
+
+  _groupPlan() {
+    const ticked = (name) => Array.from(document.querySelectorAll(`input[name="${name}"]:checked`), (i) => i.value);
+    const seeds = Math.max(1, Math.round(Number($('groupSeeds').value) || 1));
+    const branching = ticked('group-rule');
+    const select = ticked('group-order');
+    return { branching, select, seeds, runs: branching.length * select.length * seeds };
+  }
+
+  _groupCount() {
+    const plan = this._groupPlan();
+    const ok = plan.runs >= 2 && plan.runs <= GROUP_MAX;
+    $('groupCount').textContent = `${plan.runs} run${plan.runs === 1 ? '' : 's'}` +
+      (ok ? '' : ` (a comparison has 2 to ${GROUP_MAX})`);
+    $('groupForm').querySelector('button[type="submit"]').disabled = !ok;
+  }
+
+  async _startGroup() {
+    const num = (key) => {
+      const v = $(key).value.trim();
+      return v === '' ? null : Number(v);
+    };
+    const plan = this._groupPlan();
+    const body = {
+      model: $('groupModel').value, branching: plan.branching, select: plan.select,
+      seeds: plan.seeds, node_limit: num('groupNodeLimit'), time_limit: num('groupTimeLimit'),
+    };
+    const button = $('groupForm').querySelector('button[type="submit"]');
+    button.disabled = true;
+    $('groupError').hidden = true;
+    try {
+      const group = await api.startGroup(body);
+      this.openCompare({ group: group.id });
+    } catch (err) {
+      $('groupError').textContent = describeError(err);
+      $('groupError').hidden = false;
+    } finally {
+      this._groupCount();
+    }
+  }
+
+  async loadGroups() {
+    const list = $('groupsList');
+    let groups;
+    try {
+      groups = await api.groups();
+    } catch (err) {
+      list.replaceChildren(el('li', { class: 'muted small' }, `The comparisons could not be listed: ${err.message}`));
+      return;
+    }
+    if (!groups.length) {
+      list.replaceChildren(el('li', { class: 'muted small' }, 'None yet: start one above.'));
+      return;
+    }
+    list.replaceChildren(...groups.map((g) => el('li', { dataset: { group: g.id } },
+      el('a', { href: `#group=${encodeURIComponent(g.id)}` }, `${g.model ?? g.name}: ${g.branching.join(', ')}`),
+      ' ', el('span', { class: `badge ${g.state === 'running' ? 'live' : g.state === 'done' ? 'good' : 'warn'}` }, g.state),
+      el('div', { class: 'muted small' }, `${g.total} runs · ${g.select.join(', ')} · ` +
+        `${String(g.created ?? '').replace('T', ' ').slice(0, 16)}`))));
   }
 
   _solveError(text) {

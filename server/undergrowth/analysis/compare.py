@@ -26,8 +26,9 @@ if TYPE_CHECKING:
     from .table import RunTable
 
 __all__ = ["FINISHED_STATUSES", "METRIC_COLUMNS", "ROW_KEYS", "SGM_SHIFTS", "best_marks",
-           "finished", "performance_profile", "profile_rows", "rows_for_tables",
-           "run_row", "shifted_geometric_mean", "solver_means", "summary"]
+           "branched_variables", "branching_overlap", "finished", "performance_profile",
+           "profile_rows", "rows_for_tables", "run_row", "shifted_geometric_mean",
+           "solver_means", "summary"]
 
 FINISHED_STATUSES = frozenset({"optimal", "infeasible", "unbounded", "gap-reached"})
 # Status of a run whose log has no end event (the process died or is still running).
@@ -291,6 +292,50 @@ def profile_rows(profile: Mapping[str, Any]) -> list[dict[str, Any]]:
 
 def _label(solver: tuple[Any, Any]) -> str:
     return f"{solver[0]} / {solver[1]}"
+
+
+# ------------------------------------------------------------------ branching variables
+def branched_variables(table: RunTable, *, top: int = 10) -> dict[str, Any]:
+    """How often the search branched on each variable: one count per branched node,
+    read from its down child's bound change (every branching makes exactly one down
+    child). ``top`` entries ``{var, name, count, share}``, most frequent first, ties
+    by variable index; ``branchings`` is the total, ``variables`` how many distinct
+    variables were branched on."""
+    c = table.columns
+    down = (c["parent_row"] >= 0) & (c["branch_var"] >= 0) & (c["branch_dir"] == 1)
+    var = c["branch_var"][down].astype(np.int64)
+    total = int(var.size)
+    if not total:
+        return {"branchings": 0, "variables": 0, "top": []}
+    used, counts = np.unique(var, return_counts=True)
+    order = np.lexsort((used, -counts))[:max(0, top)]
+    names = table.var_names
+    return {"branchings": total, "variables": int(used.size), "top": [
+        {"var": int(used[k]), "name": names.get(int(used[k]), f"x{int(used[k])}"),
+         "count": int(counts[k]), "share": float(counts[k]) / total} for k in order]}
+
+
+def branching_overlap(tops: Sequence[Sequence[str]]) -> dict[str, Any]:
+    """The overlap of several runs' most-branched variables (given by name, so runs of
+    one model compare by variable): ``common`` (names in every list, in the first
+    list's order), ``in_runs`` (name → in how many lists) and per pair of runs
+    ``{a, b, shared, jaccard}`` with the Jaccard index |A ∩ B| / |A ∪ B| of the two
+    sets (0 when both are empty)."""
+    sets = [set(t) for t in tops]
+    in_runs: dict[str, int] = {}
+    for t in tops:
+        for name in dict.fromkeys(t):
+            in_runs[name] = in_runs.get(name, 0) + 1
+    common = [n for n in dict.fromkeys(tops[0])
+              if all(n in s for s in sets)] if tops else []
+    pairs = []
+    for i in range(len(sets)):
+        for j in range(i + 1, len(sets)):
+            union = sets[i] | sets[j]
+            shared = [n for n in dict.fromkeys(tops[i]) if n in sets[j]]
+            pairs.append({"a": i, "b": j, "shared": shared,
+                          "jaccard": len(shared) / len(union) if union else 0.0})
+    return {"common": common, "in_runs": in_runs, "pairs": pairs}
 
 
 # ------------------------------------------------------------------ all at once

@@ -148,6 +148,14 @@ class JobManager:
                 status_path(self.runs_dir, run_id).unlink()
 
     # ---------------------------------------------------------------- submit
+    def room(self) -> int:
+        """How many more solves `submit` would accept now (free slots plus queue places),
+        so a group of solves can be refused as a whole instead of half started."""
+        if self._closing:
+            return 0
+        free = max(0, self.max_running - len(self._running))
+        return free + max(0, self.max_queued - len(self._queue))
+
     async def submit(self, record: JobRecord, spec: dict[str, Any]) -> JobRecord:
         """Queue a solve (``record.run_id`` must be fresh) and start it if a slot is free."""
         self._loop = asyncio.get_running_loop()

@@ -84,6 +84,8 @@ class RunItem(BaseModel):
     bytes: int
     job: JobState | None
     error: str | None = Field(description="why the run cannot be read, if it cannot")
+    group: str | None = Field(default=None,
+                              description="the comparison group it belongs to, if any")
 
 
 class RunSummary(BaseModel):

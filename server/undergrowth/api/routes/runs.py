@@ -20,6 +20,7 @@ from ...analysis.series import bound_series
 from ...runlog.errors import RunLogError
 from ..context import Ctx, ServerContext
 from ..errors import Conflict, Invalid, NotFound, UnsupportedType
+from ..groups import GroupStore
 from ..ids import RUN_SUFFIXES, check_id, fresh_id, id_from_filename
 from ..library import RunFile, read_header_line, summarise
 from ..nodeinfo import node_detail
@@ -111,6 +112,9 @@ def _list(ctx: ServerContext) -> list[dict[str, Any]]:
     items = [_item(ctx, rf) for rf in files]
     items += [_pending_item(j) for j in ctx.jobs.list()
               if j.state in ACTIVE_STATES and j.run_id not in have]
+    groups = GroupStore(ctx.runs_dir).membership()  # comparison groups (routes/compare.py)
+    for item in items:
+        item["group"] = groups.get(item["id"])
     items.sort(key=lambda i: (i["created"] or "", i["id"]), reverse=True)
     return items
 
