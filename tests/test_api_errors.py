@@ -56,6 +56,15 @@ ERROR_CASES = [
     ("POST", "/api/solves/missing/cancel", {}, 404, "not-found"),
     ("GET", "/api/health", {"headers": {"Host": "elsewhere.example"}}, 403, "host-refused"),
     ("GET", "/vendor/nothing.js", {}, 404, "not-found"),
+    ("GET", "/api/report?run=missing", {}, 404, "not-found"),
+    ("GET", f"/api/runs/{DEPOT}/steps?count=0", {}, 422, "invalid-request"),
+    ("GET", "/api/runs/missing/steps", {}, 404, "not-found"),
+    ("GET", "/api/runs/missing/notes", {}, 404, "not-found"),
+    ("POST", f"/api/runs/{DEPOT}/notes", {"json": {"text": "x"}}, 422, "invalid-note"),
+    ("POST", f"/api/runs/{DEPOT}/notes", {"json": {"text": "x", "node": 10**6}}, 422,
+     "invalid-note"),
+    ("PATCH", f"/api/runs/{DEPOT}/notes/nothere", {"json": {"text": "x"}}, 404, "not-found"),
+    ("DELETE", f"/api/runs/{DEPOT}/notes/nothere", {}, 404, "not-found"),
 ]
 
 

@@ -93,6 +93,7 @@ def server(tmp_path_factory: pytest.TempPathFactory) -> Iterator[LiveServer]:
                            models_dir=tmp / "models", cache_dir=tmp / "cache",
                            port=free_port(), stream_interval=0.05)
     with LiveServer(settings) as live:
+        live.settings = settings
         yield live
 
 
@@ -116,7 +117,9 @@ class ConsoleWatch:
 
     def on_console(self, message: object) -> None:
         if message.type == "error":  # type: ignore[attr-defined]
-            self.errors.append(f"console: {message.text}")  # type: ignore[attr-defined]
+            # A failed fetch's text does not say which URL; its location does.
+            url = (message.location or {}).get("url", "")  # type: ignore[attr-defined]
+            self.errors.append(f"console: {message.text} [{url}]")  # type: ignore[attr-defined]
 
     def on_error(self, error: object) -> None:
         self.errors.append(f"uncaught: {error}")

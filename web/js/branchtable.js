@@ -26,6 +26,14 @@ export class BranchTable {
     this.descending = true;
     this.rows = [];
     this.limit = 400;
+    this.markedVar = -1; // a variable picked from a finding: its row is marked and scrolled to
+  }
+
+  /** Mark the row of variable `v` (-1: none). */
+  markVar(v) {
+    if (v === this.markedVar) return;
+    this.markedVar = v;
+    if (this.rows.length) this.render();
   }
 
   compute(store) {
@@ -39,6 +47,8 @@ export class BranchTable {
   render() {
     const sorted = sortRows(this.rows, this.sortKey, this.descending);
     const shown = sorted.slice(0, this.limit);
+    const marked = sorted.find((r) => r.var === this.markedVar);
+    if (marked && !shown.includes(marked)) shown.push(marked); // always listed, even past the limit
     const maxGain = Math.max(1e-12, ...shown.map((r) => Math.max(r.downMean || 0, r.upMean || 0)));
     const head = el('tr', {}, COLUMNS.map((c) => {
       const sorted = c.key === this.sortKey;
@@ -52,7 +62,8 @@ export class BranchTable {
       const bar = (v, cls) => (Number.isFinite(v) && v > 0
         ? el('span', { class: `gainbar ${cls}`, style: `width:${Math.round(40 * v / maxGain)}px`,
           'aria-hidden': 'true' }) : null);
-      const tr = el('tr', { tabindex: '0', title: 'Select the shallowest node that branched on it' },
+      const tr = el('tr', { tabindex: '0', title: 'Select the shallowest node that branched on it',
+        class: r === marked ? 'marked' : null, 'aria-current': r === marked ? 'true' : null },
         el('td', {}, r.name),
         el('td', { class: 'num' }, formatCount(r.branched), ' ',
           el('span', { class: 'muted small' }, formatShare(r.branched, this.total))),
@@ -66,6 +77,8 @@ export class BranchTable {
       return tr;
     });
     this.table.replaceChildren(el('thead', {}, head), el('tbody', {}, body));
+    const mark = this.table.querySelector('tr.marked');
+    if (mark && this.table.offsetParent) mark.scrollIntoView({ block: 'nearest' });
     const more = sorted.length > shown.length ? ` (the first ${shown.length} shown)` : '';
     this.note.textContent = this.rows.length
       ? `${formatCount(this.rows.length)} variables branched on${more}. Gain: how much a child's ` +

@@ -1,12 +1,14 @@
 // The page state kept in the URL fragment, so a link can be shared in a review:
-//   #run=<id>&node=<id>&layout=depth|bound&view=x0,x1,y0,y1&tab=bounds|closed|branching&axis=nodes|time
-// No run means the library page. Pure, no DOM.
+//   #run=<id>&node=<id>&layout=depth|bound&view=x0,x1,y0,y1&tab=bounds|closed|branching|findings&axis=nodes|time
+//   #compare=<id>,<id>,...&axis=...  (runs side by side)  or  #group=<id>  (a comparison group)
+// No run, comparison or group means the library page. Pure, no DOM.
 
 export const LAYOUTS = ['depth', 'bound'];
-export const TABS = ['bounds', 'closed', 'branching'];
+export const TABS = ['bounds', 'closed', 'branching', 'findings'];
 export const AXES = ['nodes', 'time'];
 
-const DEFAULTS = { run: null, node: null, layout: 'depth', view: null, tab: 'bounds', axis: 'nodes' };
+const DEFAULTS = { run: null, node: null, layout: 'depth', view: null, tab: 'bounds', axis: 'nodes',
+  compare: null, group: null };
 
 export function parseHash(hash) {
   const text = String(hash ?? '').replace(/^#/, '');
@@ -24,6 +26,13 @@ export function parseHash(hash) {
   if (TABS.includes(tab)) state.tab = tab;
   const axis = params.get('axis');
   if (AXES.includes(axis)) state.axis = axis;
+  const compare = params.get('compare'); // run ids never hold a comma (docs/api.md: ids)
+  if (compare) {
+    const ids = Array.from(new Set(compare.split(',').filter(Boolean)));
+    if (ids.length) state.compare = ids;
+  }
+  const group = params.get('group');
+  if (group) state.group = group;
   return state;
 }
 
@@ -35,6 +44,8 @@ export function formatHash(state) {
   if (state.layout && state.layout !== DEFAULTS.layout) parts.push(`layout=${state.layout}`);
   if (state.view) parts.push(`view=${state.view}`);
   if (state.tab && state.tab !== DEFAULTS.tab) parts.push(`tab=${state.tab}`);
+  if (state.compare?.length) parts.push(`compare=${state.compare.map(encodeURIComponent).join(',')}`);
+  if (state.group) parts.push(`group=${encodeURIComponent(state.group)}`);
   if (state.axis && state.axis !== DEFAULTS.axis) parts.push(`axis=${state.axis}`);
   return parts.length ? `#${parts.join('&')}` : '#';
 }

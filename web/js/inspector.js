@@ -9,8 +9,10 @@ import { BoundsChart } from './boundschart.js';
 import { BranchTable } from './branchtable.js';
 import { ClosedCharts } from './closedcharts.js';
 import { $, $all } from './dom.js';
+import { ReportExport } from './exportreport.js';
 import { FrameScheduler } from './frame.js';
 import { closeHelp, isHelpOpen, toggleHelp } from './help.js';
+import { branchedOn, FindingsPanel, varIndexOf } from './findingspanel.js';
 import { fillHoverCard } from './hovercard.js';
 import { actionFor } from './keys.js';
 import { buildLegend } from './legend.js';
@@ -64,6 +66,9 @@ export class Inspector {
     this.branching = new BranchTable($('branchTable'), $('branchNote'), {
       onSelectRow: (row) => { if (row >= 0) this.selectRow(row, { centre: true }); },
     });
+    this.findings = new FindingsPanel($('findingsPanel'), $('findingsCount'), $('liveForecast'),
+      this._findingHooks());
+    this.exporter = new ReportExport($('exportReport'), $('exportStatus'));
     this.legend = buildLegend($('legend'), (code, shown) => {
       const bit = 1 << code;
       this.tree.setStatusMask(shown ? this.tree.statusMask | bit : this.tree.statusMask & ~bit);
@@ -85,6 +90,7 @@ export class Inspector {
     this.close();
     const token = ++this._token;
     this.runId = runId;
+    this.exporter.setRun(runId);
     this.series = new BoundSeries();
     this.axis = state.axis ?? 'nodes';
     this.tab = state.tab ?? 'bounds';
@@ -95,6 +101,8 @@ export class Inspector {
     this.legend.reset();
     this._syncControls();
     this.panel.clear();
+    this.findings.wait();
+    this._clearHighlight();
     showTitle(runId, null);
     $('treeStatus').textContent = 'Loading the tree\u2026';
     $('liveBar').hidden = true;
@@ -134,6 +142,7 @@ export class Inspector {
       }
       const why = d.error ? d.error.message : err.message;
       $('treeStatus').textContent = `This run cannot be opened: ${why}`;
+      this.findings.wait(`No findings: this run cannot be opened (${why}).`);
       this._needPlotly();
       return;
     }
@@ -144,6 +153,7 @@ export class Inspector {
     this.timings.storeSet = performance.now();
     this._loadSeries(token, this.axis);
     if (store.live) this._startLive(token, null, store, store.events - 1);
+    else this.findings.open(runId);
   }
 
   /** Run plotly's script now (after the first tree draw, or at once without a tree). */
@@ -164,6 +174,8 @@ export class Inspector {
   close() {
     this.feed?.stop();
     this.feed = null;
+    this.findings.close();
+    this.exporter.setRun(null);
     this.runId = null;
     this.store = null;
     this._token++;
@@ -237,6 +249,15 @@ export class Inspector {
       onEnd: (info) => this._liveEnded(token, info),
     });
     this.feed.start(lastId);
+    // The run log may not exist before the first node: ask for findings only then.
+    this._findingsLive = false;
+    if (store.n > 0) this._followFindings();
+    else this.findings.wait('The findings and the forecast follow once the first nodes arrive.');
+  }
+
+  _followFindings() {
+    this._findingsLive = true;
+    this.findings.open(this.runId, { live: true }); // the forecast follows the run
   }
 
   _applyLive() {
@@ -258,6 +279,7 @@ export class Inspector {
         if (added) {
           $('treeStatus').textContent = '';
           this.tree.grew();
+          if (!this._findingsLive) this._followFindings();
           if (!this._senseKnown) this._learnSense();
           if (this._pendingNode !== null && store.rowOf(this._pendingNode) >= 0) {
             const id = this._pendingNode;
@@ -328,6 +350,10 @@ export class Inspector {
     } catch {
       // the figures from the stream stay
     }
+    if (token !== this._token) return;
+    if (this._findingsLive) this.findings.finish(); // final findings and the back-test
+    else if (this.store?.n > 0) this.findings.open(this.runId);
+    else this.findings.wait('No findings: the search ended before its first node.');
   }
 
   _showLiveState() {
@@ -382,6 +408,50 @@ export class Inspector {
     if (row >= 0) this.selectRow(row, { centre: true });
   }
 
+  // ------------------------------------------------------------ findings' refs
+  _findingHooks() {
+    return {
+      onNode: (id) => {
+        const ok = this.selectId(id);
+        if (ok) this.tree.centreOnRow(this.tree.selected); // centred, even when on screen
+        return ok;
+      },
+      onNodes: (ids) => {
+        const rows = ids.map((id) => this.store?.rowOf(id) ?? -1).filter((r) => r >= 0);
+        this.tree.setHighlight(Int32Array.from(rows));
+        return rows.length;
+      },
+      onVariable: (name) => {
+        const v = varIndexOf(this.store, name);
+        if (v < 0) return -1;
+        const rows = branchedOn(this.store, v);
+        this.tree.setHighlight(rows);
+        this.branching.markVar(v);
+        let best = -1; // the shallowest, first solved on ties
+        for (const r of rows) {
+          if (best < 0 || this.store.depth[r] < this.store.depth[best] ||
+            (this.store.depth[r] === this.store.depth[best] && this.store.order[r] < this.store.order[best])) best = r;
+        }
+        if (best >= 0) {
+          this.selectRow(best);
+          this.tree.centreOnRow(best);
+        }
+        return rows.length;
+      },
+      onVariableTable: (name) => {
+        this.branching.markVar(varIndexOf(this.store, name));
+        this.setTab('branching');
+      },
+      onClear: () => this._clearHighlight(),
+    };
+  }
+
+  _clearHighlight() {
+    this.tree.setHighlight(null);
+    this.branching.markVar(-1);
+    this.findings.highlightCleared();
+  }
+
   // ------------------------------------------------------------ actions
   act(action) {
     const t = this.tree;
@@ -408,8 +478,15 @@ export class Inspector {
       case 'tab-bounds': this.setTab('bounds'); break;
       case 'tab-closed': this.setTab('closed'); break;
       case 'tab-branching': this.setTab('branching'); break;
+      case 'tab-findings': this.setTab('findings'); break;
       case 'toggle-axis': this.setAxis(this.axis === 'nodes' ? 'time' : 'nodes'); break;
-      case 'clear': if (isHelpOpen()) closeHelp(); else this.selectRow(-1); break;
+      case 'clear':
+        if (isHelpOpen()) closeHelp();
+        else {
+          this.selectRow(-1);
+          this._clearHighlight();
+        }
+        break;
       case 'help': toggleHelp(); break;
       default: break;
     }

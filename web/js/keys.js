@@ -18,6 +18,7 @@ export const SHORTCUTS = Object.freeze([
   { keys: ['1'], action: 'tab-bounds', help: 'Show the bounds chart' },
   { keys: ['2'], action: 'tab-closed', help: 'Show why nodes closed' },
   { keys: ['3'], action: 'tab-branching', help: 'Show the branching variables' },
+  { keys: ['4'], action: 'tab-findings', help: 'Show the findings and the forecast' },
   { keys: ['t'], action: 'toggle-axis', help: 'Bounds chart: nodes or seconds on the x axis' },
   { keys: ['Escape'], action: 'clear', help: 'Clear the selection / close this help' },
   { keys: ['?'], action: 'help', help: 'Show or hide this help' },

@@ -1,6 +1,7 @@
 // Entry point: routes between the run library and the inspector from the URL
 // fragment, and keeps the fragment in step with what the inspector shows.
 
+import { ComparePage } from './compare.js';
 import { $ } from './dom.js';
 import { toggleHelp } from './help.js';
 import { formatHash, parseHash } from './hashstate.js';
@@ -10,7 +11,11 @@ import { showTitle } from './runstrip.js';
 
 let state = parseHash(location.hash);
 let inspector = null;
-const library = new LibraryPage({ openRun: (id, opts) => openRun(id, opts) });
+let compare = null;
+const library = new LibraryPage({
+  openRun: (id, opts) => openRun(id, opts),
+  openCompare: (partial) => openCompare(partial),
+});
 
 function writeHash(partial, { push = false } = {}) {
   state = { ...state, ...partial };
@@ -26,11 +31,28 @@ function openRun(id, opts = {}) {
   route(opts);
 }
 
+/** The comparison page: {compare: [ids]} (runs from the library) or {group: id}. */
+function openCompare(partial) {
+  state = { ...parseHash(''), ...partial };
+  history.pushState(null, '', formatHash(state));
+  route();
+}
+
 function route(opts = {}) {
   const showInspector = Boolean(state.run);
-  $('libraryPage').hidden = showInspector;
+  const showCompare = !showInspector && Boolean(state.compare?.length || state.group);
+  $('libraryPage').hidden = showInspector || showCompare;
   $('inspectorPage').hidden = !showInspector;
-  if (showInspector) {
+  $('comparePage').hidden = !showCompare;
+  if (!showCompare) compare?.close();
+  if (showCompare) {
+    inspector?.close();
+    if (!compare) {
+      compare = new ComparePage({ onState: (partial) => writeHash(partial), openRun });
+      window.undergrowth.compare = compare;
+    }
+    compare.open(state);
+  } else if (showInspector) {
     if (!inspector) {
       inspector = new Inspector({ onState: (partial) => writeHash(partial) });
       window.undergrowth.inspector = inspector;
@@ -58,5 +80,5 @@ document.addEventListener('keydown', (e) => {
 });
 
 // A handle for tests and benchmarks (read-only use).
-window.undergrowth = { inspector: null, library, state: () => state };
+window.undergrowth = { inspector: null, compare: null, library, state: () => state };
 route();

@@ -11,6 +11,7 @@ import { formatCount, formatValue } from './format.js';
 import { niceStep } from './view.js';
 
 const BACKGROUND = '#fbfbf8';
+const HIGHLIGHT_COLOUR = '#5a2d82'; // nodes a finding points at: a colour no status uses
 const AXIS_TEXT = '#5b6169';
 const FONT = '11px system-ui, -apple-system, "Segoe UI", sans-serif';
 
@@ -41,7 +42,7 @@ export class TreeRenderer {
 
   /**
    * Draw a planned frame. `deco` holds what is drawn over it:
-   * {layout, view, scene, selected, pathRows, incumbentRows, incumbentY, sense, markRadius}
+   * {layout, view, scene, selected, pathRows, highlightRows, incumbentRows, incumbentY, sense, markRadius}
    */
   draw(list, deco) {
     const ctx = this.ctx;
@@ -101,6 +102,7 @@ export class TreeRenderer {
     this._special(list, special, r);
     if (deco.layout === 'bound') this._incumbentLine(deco);
     this._incumbentNodes(deco, r);
+    this._highlight(deco, r);
     this._path(deco);
     this._selection(deco, r);
     this._caption(deco);
@@ -183,6 +185,27 @@ export class TreeRenderer {
       ctx.arc(x, y, Math.max(r, 3.5) + (row === last ? 5 : 3.5), 0, 2 * Math.PI);
       ctx.stroke();
     }
+  }
+
+  /** Rows a finding points at: a dark square outline with a white halo, one path. */
+  _highlight(deco, r) {
+    const rows = deco.highlightRows;
+    if (!rows?.length) return;
+    const ctx = this.ctx;
+    const s = Math.max(r, 3.5) + 3;
+    ctx.beginPath();
+    for (const row of rows) {
+      if (deco.hidden?.(row)) continue;
+      const [x, y] = this._screen(deco, row);
+      if (x < -s || x > this.width + s || y < -s || y > this.height + s) continue;
+      ctx.rect(x - s, y - s, 2 * s, 2 * s);
+    }
+    ctx.lineWidth = 4;
+    ctx.strokeStyle = 'rgba(255,255,255,0.9)';
+    ctx.stroke();
+    ctx.lineWidth = 2;
+    ctx.strokeStyle = HIGHLIGHT_COLOUR;
+    ctx.stroke();
   }
 
   _path(deco) {

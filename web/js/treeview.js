@@ -33,6 +33,7 @@ export class TreeView {
     this.depthMax = Infinity;
     this.selected = -1;
     this.pathRows = null;
+    this.highlightRows = null; // rows a finding points at (Int32Array), outlined
     this.hover = null; // {x, y} pointer position over the canvas
     this.lastDraw = { ms: 0, marks: 0, edges: 0, visited: 0 };
     this.drawCount = 0;
@@ -48,8 +49,15 @@ export class TreeView {
     this.renderer.bindScene(this.scene);
     this.selected = -1;
     this.pathRows = null;
+    this.highlightRows = null;
     this.view = null;
     this.follow = true;
+    this.mark();
+  }
+
+  /** Outline these rows (a finding's nodes); null clears. */
+  setHighlight(rows) {
+    this.highlightRows = rows && rows.length ? rows : null;
     this.mark();
   }
 
@@ -214,7 +222,7 @@ export class TreeView {
   _deco(radius) {
     return {
       layout: this.layout, view: this.view ?? { x0: 0, x1: 1, y0: 0, y1: 1 }, scene: this.scene,
-      selected: this.selected, pathRows: this.pathRows,
+      selected: this.selected, pathRows: this.pathRows, highlightRows: this.highlightRows,
       incumbentRows: this.store?.incumbentRows ?? [], incumbentY: this.incumbentY(),
       sense: this.store?.sense, markRadius: radius,
       hidden: (row) => this.scene.isHiddenByFold(row),

@@ -14,7 +14,7 @@ from ..paths import WEB_ROOT
 from .access import AccessMiddleware
 from .context import ServerContext
 from .errors import install_error_handlers
-from .routes import findings, health, models, runs, solves, stream
+from .routes import compare, findings, health, models, notes, report, runs, solves, steps, stream
 from .settings import ApiSettings
 from .static import mount_static
 
@@ -60,7 +60,8 @@ def create_app(settings: ApiSettings | None = None) -> FastAPI:
                   openapi_url="/openapi.json")
     app.state.undergrowth = ctx
     install_error_handlers(app)
-    for module in (health, runs, findings, stream, models, solves):
+    for module in (health, runs, findings, stream, models, solves, report, compare, steps,
+                   notes):
         app.include_router(module.router)
     mount_static(app, WEB_ROOT)
     app.add_middleware(_Compress)
