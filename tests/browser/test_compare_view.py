@@ -68,6 +68,7 @@ def test_two_runs_side_by_side_at_one_scale_with_one_chart_and_the_table(page, s
     page.click('[data-compare-axis="time"]')
     page.wait_for_function("""() => document.querySelector('#compare-chart').layout.xaxis
         .title.text.startsWith('seconds')""")
+    # the axis title changes with the data: never a time axis over node-count traces
     assert page.evaluate("document.querySelector('#compare-chart').data.length") == 4
     assert "axis=time" in page.evaluate("location.hash")
 

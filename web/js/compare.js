@@ -338,8 +338,9 @@ export class ComparePage {
     Promise.all(missing.map(async (id) => {
       const body = await api.series(id, axis, SERIES_POINTS).catch(() => null);
       if (token === this._token && body) this.series.set(id, { ...(this.series.get(id) ?? {}), [axis]: body });
-    })).then(() => this._drawChart());
-    this._drawChart();
+    })).then(() => { if (token === this._token) this._drawChart(); });
+    // Redraw at once only when every series is at hand: an empty chart in between flickers.
+    if (!missing.length) this._drawChart();
   }
 
   _syncAxisButtons() {

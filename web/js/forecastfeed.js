@@ -105,7 +105,12 @@ export function rangeText(low, high, fmt) {
  */
 export function forecastLine(fc) {
   if (!fc) return { text: 'Forecast: not available', state: 'none' };
-  if (fc.finished) return { text: `Tree complete: ${formatCount(fc.done)} nodes`, state: 'complete' };
+  if (fc.finished) {
+    // `done` counts every node created, `processed_total` the relaxations solved.
+    const solved = fc.processed_total ?? fc.done;
+    const extra = solved !== fc.done ? ` (${formatCount(solved)} solved)` : '';
+    return { text: `Tree complete: ${formatCount(fc.done)} nodes${extra}`, state: 'complete' };
+  }
   if (fc.total_nodes === null || fc.total_nodes === undefined) {
     return { text: 'Forecast: waiting for the first nodes', state: 'none' };
   }
