@@ -63,8 +63,10 @@ def _pick(candidates: np.ndarray, scores: np.ndarray, values: np.ndarray,
     """Best score, ties to the lowest index (candidates are ascending); runner-up kept.
     Scores within TIE_TOLERANCE (relative) of the best tie: relaxation round-off
     (0.2500000000000004 against 0.25) must not decide."""
+    if len(scores) <= _SMALL:
+        return _pick_small(candidates, scores, values, largest)
     key = -scores if largest else scores
-    top = key.min()
+    top = float(key.min())  # a Python float: numpy scalar arithmetic costs microseconds
     best = int(np.argmax(key <= top + TIE_TOLERANCE * abs(top)))  # first index within ties
     runner = None
     if len(key) > 1:
@@ -73,6 +75,29 @@ def _pick(candidates: np.ndarray, scores: np.ndarray, values: np.ndarray,
         r = int(np.argmin(others))  # argmin keeps the first of equal keys
         runner = (int(candidates[r]), float(scores[r]))
     return BranchDecision(int(candidates[best]), float(values[best]), float(scores[best]),
+                          runner_up=runner)
+
+
+# Below this many candidates plain Python beats numpy's per-call cost (measured:
+# about 3 µs against 10 µs a choice); the two paths choose identically.
+_SMALL = 48
+
+
+def _pick_small(candidates: np.ndarray, scores: np.ndarray, values: np.ndarray,
+                largest: bool) -> BranchDecision:
+    sc = scores.tolist()
+    key = [-v for v in sc] if largest else sc
+    top = min(key)
+    limit = top + TIE_TOLERANCE * abs(top)
+    best = next(i for i, k in enumerate(key) if k <= limit)
+    runner = None
+    if len(key) > 1:
+        r = 1 if best == 0 else 0
+        for i in range(r + 1, len(key)):
+            if i != best and key[i] < key[r]:
+                r = i
+        runner = (int(candidates[r]), sc[r])
+    return BranchDecision(int(candidates[best]), float(values[best]), sc[best],
                           runner_up=runner)
 
 

@@ -331,9 +331,9 @@ class Search:
                                     "score": dec.runner_up[1]},
                                 "lookahead_iterations": dec.lookahead_iterations,
                                 # the first few fractional candidates, for narration
-                                "candidates": [[int(j), float(v)] for j, v in
-                                               zip(cand[:CANDIDATES_KEPT],
-                                                   x[cand[:CANDIDATES_KEPT]], strict=True)],
+                                "candidates": [list(jv) for jv in zip(
+                                    cand[:CANDIDATES_KEPT].tolist(),
+                                    x[cand[:CANDIDATES_KEPT]].tolist(), strict=True)],
                             }
                             children = self._children(node, dec, next_id, relax, pseudo,
                                                       ctx.basis, obj)

@@ -46,9 +46,9 @@ class Pseudocosts:
     def values(self, var: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
         """(ψ⁻, ψ⁺) for ``var``; variables never observed in a direction get the
         average over all observations in that direction (1.0 when there are none)."""
-        out = []
-        for d in (0, 1):
-            out.append(np.where(self.count[d, var] > 0, self.mean[d, var], self.average(d)))
+        # One gather for both directions: half the numpy calls of one per direction.
+        fill = np.array([[self.average(0)], [self.average(1)]])
+        out = np.where(self.count[:, var] > 0, self.mean[:, var], fill)
         return out[0], out[1]
 
     def reliable(self, var: np.ndarray, threshold: int) -> np.ndarray:

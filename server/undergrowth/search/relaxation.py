@@ -119,29 +119,33 @@ class Relaxation:
         self.root_lower = np.array(problem.col_lower, dtype=float)
         self.root_upper = np.array(problem.col_upper, dtype=float)
         # The column bounds loaded in HiGHS right now.
-        self.lower = self.root_lower.copy()
-        self.upper = self.root_upper.copy()
+        # Plain lists: the engine reads and compares single entries, which lists do
+        # several times faster than numpy's scalar indexing.
+        self.lower: list[float] = self.root_lower.tolist()
+        self.upper: list[float] = self.root_upper.tolist()
         self.solves = 0
 
     # ----------------------------------------------------------- bounds
     def change_bounds(self, changes: dict[int, tuple[float, float]]) -> None:
         """Load new bounds for the columns in ``changes``, skipping those already loaded."""
         lower, upper = self.lower, self.upper
-        idx = [j for j, (lo, up) in changes.items() if lower[j] != lo or upper[j] != up]
+        idx: list[int] = []
+        los: list[float] = []
+        ups: list[float] = []
+        for j, (lo, up) in changes.items():
+            if lower[j] != lo or upper[j] != up:
+                idx.append(j)
+                los.append(lo)
+                ups.append(up)
+                lower[j] = lo
+                upper[j] = up
         if not idx:
             return
         if len(idx) == 1:
-            j = idx[0]
-            lo, up = changes[j]
-            self._h.changeColBounds(j, lo, up)
-            lower[j], upper[j] = lo, up
+            self._h.changeColBounds(idx[0], los[0], ups[0])
             return
-        ia = np.asarray(idx, dtype=np.int32)
-        lo = np.fromiter((changes[j][0] for j in idx), dtype=float, count=len(idx))
-        up = np.fromiter((changes[j][1] for j in idx), dtype=float, count=len(idx))
-        self._h.changeColsBounds(len(idx), ia, lo, up)
-        lower[ia] = lo
-        upper[ia] = up
+        self._h.changeColsBounds(len(idx), np.array(idx, dtype=np.int32),
+                                 np.array(los, dtype=float), np.array(ups, dtype=float))
 
     def set_one_bound(self, j: int, lower: float, upper: float) -> None:
         """Temporarily change one column's bounds (strong branching); not tracked."""
