@@ -2,7 +2,14 @@
 
 from __future__ import annotations
 
+import sys
+from pathlib import Path
 from typing import Any
+
+from undergrowth.model import write_model
+
+sys.path.insert(0, str(Path(__file__).resolve().parents[1]))  # the test model families
+from families import parity_knapsack  # noqa: E402
 
 DEPOT = "depot-siting-loose.most-fractional.best-bound"  # 149 tree nodes, two incumbents
 KNAPSACK = "project-selection.most-fractional.best-bound"  # a maximisation, 3651 nodes
@@ -11,6 +18,20 @@ KNAPSACK = "project-selection.most-fractional.best-bound"  # a maximisation, 365
 def open_run(page: Any, base: str, run_id: str, extra: str = "") -> None:
     page.goto(f"{base}/#run={run_id}{extra}")
     wait_for_tree(page)
+
+
+def start_endless_solve(page: Any, server: Any, model_id: str, order: str) -> None:
+    """Start, from the library page, a live solve that cannot finish on its own (a
+    parity knapsack), so a test can cancel it or watch it without racing its end."""
+    models = server.settings.models_dir
+    models.mkdir(parents=True, exist_ok=True)
+    write_model(parity_knapsack(41), str(models / f"{model_id}.mps"))
+    page.goto(server.url + "/")
+    page.wait_for_selector(f'#solve-model option[value="{model_id}"]', state="attached")
+    page.select_option("#solve-model", model_id)
+    page.select_option("#solve-rule", "most-fractional")
+    page.select_option("#solve-order", order)
+    page.click("text=Start and watch live")
 
 
 def wait_for_tree(page: Any) -> None:

@@ -6,16 +6,8 @@ tightest big-M values themselves are checked by hand in tests/test_findings.py.
 
 from __future__ import annotations
 
-import sys
-from pathlib import Path
-
 import httpx
-from browser_support import DEPOT, open_run
-
-from undergrowth.model import write_model
-
-sys.path.insert(0, str(Path(__file__).resolve().parents[1]))  # the test model families
-from families import parity_knapsack  # noqa: E402
+from browser_support import DEPOT, open_run, start_endless_solve
 
 TIGHT = "depot-siting-tight.most-fractional.best-bound"
 
@@ -88,14 +80,7 @@ def test_the_tight_depot_model_shows_neither_finding(page, server):
 
 
 def test_the_forecast_is_shown_live_and_updates_while_a_solve_runs(page, server):
-    server.settings.models_dir.mkdir(parents=True, exist_ok=True)
-    write_model(parity_knapsack(41), str(server.settings.models_dir / "parity-forecast.mps"))
-    page.goto(server.url + "/")
-    page.wait_for_selector('#solve-model option[value="parity-forecast"]', state="attached")
-    page.select_option("#solve-model", "parity-forecast")
-    page.select_option("#solve-rule", "most-fractional")
-    page.select_option("#solve-order", "depth-first")
-    page.click("text=Start and watch live")
+    start_endless_solve(page, server, "parity-forecast", "depth-first")
     page.wait_for_selector("#live-forecast:not([hidden])", timeout=60_000)
     page.wait_for_function("() => /remaining|left|nodes/i.test("
                            "document.querySelector('#live-forecast').textContent)", timeout=60_000)

@@ -3,18 +3,12 @@
 from __future__ import annotations
 
 import json
-import sys
 import time
-from pathlib import Path
 
 import httpx
-from browser_support import inked_pixels
+from browser_support import inked_pixels, start_endless_solve
 
-from undergrowth.model import write_model
 from undergrowth.paths import SAMPLE_RUNS
-
-sys.path.insert(0, str(Path(__file__).resolve().parents[1]))  # the test model families
-from families import parity_knapsack  # noqa: E402
 
 
 def test_the_library_lists_the_sample_runs_with_their_figures(page, server):
@@ -127,15 +121,7 @@ def test_a_running_solve_opened_from_a_link_loads_the_tree_so_far_then_follows(p
 
 
 def test_a_live_solve_can_be_cancelled_from_the_page(page, server):
-    # A search that cannot finish on its own, so the cancel never races the end.
-    server.settings.models_dir.mkdir(parents=True, exist_ok=True)
-    write_model(parity_knapsack(41), str(server.settings.models_dir / "parity-41.mps"))
-    page.goto(server.url + "/")
-    page.wait_for_selector('#solve-model option[value="parity-41"]', state="attached")
-    page.select_option("#solve-model", "parity-41")
-    page.select_option("#solve-rule", "most-fractional")
-    page.select_option("#solve-order", "breadth-first")
-    page.click("text=Start and watch live")
+    start_endless_solve(page, server, "parity-41", "breadth-first")
     page.wait_for_function("() => { const i = window.undergrowth.inspector;"
                            " return i && i.store && i.store.n > 20; }", timeout=60_000)
     page.click("#live-cancel")
