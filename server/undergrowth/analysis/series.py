@@ -3,9 +3,11 @@
 Where the figures come from:
 
 - primal: each incumbent event (a step up or down at the node that found it),
-- dual: the root's bound once the root is solved, then each progress snapshot
-  (the engine writes one every few hundred nodes, every second, after each
-  incumbent, and at the end),
+- dual: after every processed node, as `measures.node_trace` rebuilds it from the
+  node events (the smallest bound among the nodes still waiting, the incumbent and
+  failed regions); the progress snapshots (every few hundred nodes, every second,
+  after each incumbent, and at the end) agree with it where both exist and fill in
+  where the node events cannot say (before the first and after the last solve),
 - gap: wherever either changes, from the two step functions, as the event
   contract defines it.
 
@@ -112,6 +114,20 @@ def _step_at(x_of: np.ndarray, y_of: np.ndarray, x: np.ndarray) -> np.ndarray:
     return out
 
 
+def _trace_dual(table: RunTable, axis: str) -> tuple[np.ndarray, np.ndarray]:
+    """The global dual bound after each processed node k = 1 … N, where it is finite,
+    at x = k (nodes) or the k-th node's time; in the model's own sense."""
+    from .measures import node_trace  # late: measures is the heavier module
+
+    if not len(table):
+        return np.empty(0), np.empty(0)
+    trace = node_trace(table)
+    y = trace.dual[1:]
+    x = np.arange(1, len(y) + 1, dtype=np.float64) if axis == "nodes" else trace.time[1:]
+    ok = np.isfinite(y)
+    return x[ok].astype(np.float64), y[ok].astype(np.float64)
+
+
 def _root_point(table: RunTable, axis: str) -> tuple[float, float] | None:
     c = table.columns
     if not len(table):
@@ -141,6 +157,13 @@ def bound_series(table: RunTable, *, axis: str = "nodes", points: int = 1000) ->
     po = np.argsort(prog_x, kind="stable")
     px, py = inc_x[io], inc.objective[io]
     dx, dy = prog_x[po], prog.dual_bound[po]
+    # Snapshots come every few hundred nodes: a short run would show a flat dual line
+    # until its first incumbent. The per-node trace gives the bound after every node.
+    tx, ty = _trace_dual(table, axis)
+    if len(tx):
+        before, after = dx < tx[0], dx > tx[-1]
+        dx = np.r_[dx[before], tx, dx[after]]
+        dy = np.r_[dy[before], ty, dy[after]]
     # The root's bound is a valid dual bound from the moment it is solved: it starts the
     # line before the first snapshot (often many nodes later in a short run).
     root = _root_point(table, axis)
