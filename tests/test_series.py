@@ -9,6 +9,7 @@ from hypothesis import strategies as st
 
 from undergrowth.analysis.series import bound_series, reduce_minmax
 from undergrowth.analysis.table import RunTable
+from undergrowth.runlog import read_run
 from undergrowth.runlog.writer import RunLogWriter
 from undergrowth.samples import depot_siting
 from undergrowth.search import Search, SearchSettings
@@ -85,3 +86,37 @@ def test_series_reduced_to_few_points_keep_the_worst_gap(depot_run):
 def test_unknown_axis_is_refused(depot_run):
     with pytest.raises(ValueError, match="axis"):
         bound_series(depot_run, axis="depth")
+
+
+def replayed_dual(path) -> list[float]:
+    """The global dual bound after each processed node, by replaying the log in
+    processing order: the smallest bound among waiting nodes (a child waits with its
+    parent's bound from the parent's step), capped by the incumbent (minimisation)."""
+    log = read_run(path)
+    waiting: dict[int, float] = {}
+    incumbent = np.inf
+    out: list[float | None] = []
+    for ev in log.events:
+        if ev["kind"] == "incumbent":
+            incumbent = min(incumbent, ev["objective"])
+        if ev["kind"] != "node":
+            continue
+        waiting.pop(ev["id"], None)
+        if ev["status"] == "branched":
+            for child in (n for n in log.nodes if n["parent"] == ev["id"]):
+                waiting[child["id"]] = ev["bound"]
+        if ev["order"] is not None:
+            out.append(None)  # filled once the step's incumbent events are in
+        if out:
+            out[-1] = min([incumbent, *waiting.values()])
+    return out
+
+
+def test_the_dual_line_is_the_dual_bound_after_every_node(depot_run):
+    # Progress snapshots come only every 5th node here: the line must have a point
+    # after every node, not only at the snapshots.
+    s = bound_series(depot_run, axis="nodes", points=100_000)
+    truth = replayed_dual(depot_run.path)
+    by_x = dict(zip(s.dual.x.tolist(), s.dual.y.tolist(), strict=True))
+    for k, value in enumerate(truth, start=1):
+        assert by_x[float(k)] == pytest.approx(value, rel=1e-9), f"after node {k}"
