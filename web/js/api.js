@@ -12,6 +12,9 @@ export const URLS = Object.freeze({
   node: (id, node) => `/api/runs/${enc(id)}/nodes/${enc(node)}`,
   series: (id, axis, points) => `/api/runs/${enc(id)}/series?x=${enc(axis)}&points=${points}`,
   findings: (id) => `/api/runs/${enc(id)}/findings`,
+  steps: (id, start, count) => `/api/runs/${enc(id)}/steps?start=${start}&count=${count}`,
+  notes: (id) => `/api/runs/${enc(id)}/notes`,
+  note: (id, noteId) => `/api/runs/${enc(id)}/notes/${enc(noteId)}`,
   report: (ids) => `/api/report?${ids.map((id) => `run=${enc(id)}`).join('&')}`,
   stream: (id) => `/api/runs/${enc(id)}/stream`,
   uploadRun: () => '/api/runs',
@@ -65,6 +68,10 @@ const postJson = (url, body) => request(url, {
   method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify(body),
 });
 
+const sendJson = (url, method, body) => request(url, {
+  method, headers: { 'Content-Type': 'application/json' }, body: JSON.stringify(body),
+});
+
 function upload(url, file) {
   const form = new FormData();
   form.append('file', file, file.name);
@@ -79,6 +86,11 @@ export const api = {
   node: (id, node) => request(URLS.node(id, node)),
   series: (id, axis, points) => request(URLS.series(id, axis, points)),
   findings: (id) => request(URLS.findings(id)),
+  steps: (id, start, count) => request(URLS.steps(id, start, count)),
+  notes: (id) => request(URLS.notes(id)),
+  addNote: (id, body) => postJson(URLS.notes(id), body),
+  editNote: (id, noteId, body) => sendJson(URLS.note(id, noteId), 'PATCH', body),
+  deleteNote: (id, noteId) => request(URLS.note(id, noteId), { method: 'DELETE' }, 'none'),
   report: (ids) => request(URLS.report(ids), {}, 'buffer'),
   models: () => request(URLS.models()),
   uploadRun: (file) => upload(URLS.uploadRun(), file),

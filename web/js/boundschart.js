@@ -3,7 +3,8 @@
 // Plotly draws SVG scatter traces fed with at most a few points per pixel:
 // each curve is reduced to min/max per pixel bucket over the visible x range,
 // again whenever the user zooms. Clicking the chart picks the moment under the
-// pointer; the inspector selects the node processed then.
+// pointer; the inspector selects the node processed then. The walkthrough
+// adds a vertical cursor at its step (moved with a cheap relayout of one shape).
 
 import { curvesRange, reduceRange } from './series.js';
 import { INCUMBENT_COLOUR } from './statuses.js';
@@ -11,6 +12,7 @@ import { followSize } from './chartsize.js';
 
 const DUAL_COLOUR = '#0072B2';
 const GAP_COLOUR = '#7a7f87';
+const CURSOR_COLOUR = '#1b1f24';
 
 export class BoundsChart {
   /** div: the chart element; hooks: {onPick(x, axis)} */
@@ -26,6 +28,37 @@ export class BoundsChart {
     this.lastPoints = 0;
     this._busy = false;
     this._again = false;
+    this.cursor = null; // x of the walkthrough's step, null for none
+    this._cursorBusy = false;
+    this._cursorAgain = false;
+  }
+
+  /** The walkthrough's cursor at x (on the current axis); null removes it. */
+  setCursor(x) {
+    this.cursor = Number.isFinite(x) ? x : null;
+  }
+
+  _shapes() {
+    if (this.cursor === null) return [];
+    return [{ type: 'line', xref: 'x', yref: 'paper', x0: this.cursor, x1: this.cursor, y0: 0, y1: 1,
+      line: { color: CURSOR_COLOUR, width: 1.5, dash: 'solid' }, opacity: 0.7, layer: 'above' }];
+  }
+
+  /** Move the cursor on a drawn chart without redrawing the traces. */
+  async moveCursor() {
+    if (!this.Plotly || !this.drawn) return;
+    if (this._busy) { this._again = true; return; } // the redraw under way takes the cursor along
+    if (this._cursorBusy) { this._cursorAgain = true; return; }
+    this._cursorBusy = true;
+    try {
+      await this.Plotly.relayout(this.div, { shapes: this._shapes() });
+    } finally {
+      this._cursorBusy = false;
+    }
+    if (this._cursorAgain) {
+      this._cursorAgain = false;
+      await this.moveCursor();
+    }
   }
 
   attach(Plotly) {
@@ -92,6 +125,7 @@ export class BoundsChart {
         gridcolor: '#ecebe4', tickformat: '~g' },
       yaxis2: { title: { text: 'gap', standoff: 4 }, overlaying: 'y', side: 'right',
         rangemode: 'tozero', tickformat: '.0%', showgrid: false, zeroline: false },
+      shapes: this._shapes(),
     };
   }
 

@@ -85,6 +85,27 @@ export const SEL = Object.freeze({
   liveForecast: '#live-forecast',
   exportReport: '#export-report',
   exportStatus: '#export-status',
+  // walkthrough (walkthrough.js, notespanel.js)
+  walkToggle: '#walk-toggle',
+  walkBar: '#walk-bar',
+  walkFirst: '#walk-first',
+  walkPrev: '#walk-prev',
+  walkPlay: '#walk-play',
+  walkNext: '#walk-next',
+  walkLast: '#walk-last',
+  walkCounter: '#walk-counter',
+  walkSpeed: '#walk-speed',
+  walkJumps: '#walk-bar [data-jump]',
+  walkMessage: '#walk-message',
+  walkTimeline: '#walk-timeline',
+  walkTicks: '#walk-ticks',
+  walkDone: '#walk-done',
+  walkCursor: '#walk-cursor',
+  nodeSection: '#node-section',
+  walkSide: '#walk-side',
+  walkNarration: '#walk-narration',
+  notesPanel: '#notes-panel',
+  notesCount: '#notes-count',
 });
 
 const cache = new Map();

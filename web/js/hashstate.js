@@ -1,5 +1,6 @@
 // The page state kept in the URL fragment, so a link can be shared in a review:
 //   #run=<id>&node=<id>&layout=depth|bound&view=x0,x1,y0,y1&tab=bounds|closed|branching|findings&axis=nodes|time
+//   #run=<id>&step=<k>  (the walkthrough at step k, 0-based; the page shows "step k+1 of N")
 //   #compare=<id>,<id>,...&axis=...  (runs side by side)  or  #group=<id>  (a comparison group)
 // No run, comparison or group means the library page. Pure, no DOM.
 
@@ -7,7 +8,7 @@ export const LAYOUTS = ['depth', 'bound'];
 export const TABS = ['bounds', 'closed', 'branching', 'findings'];
 export const AXES = ['nodes', 'time'];
 
-const DEFAULTS = { run: null, node: null, layout: 'depth', view: null, tab: 'bounds', axis: 'nodes',
+const DEFAULTS = { run: null, node: null, step: null, layout: 'depth', view: null, tab: 'bounds', axis: 'nodes',
   compare: null, group: null };
 
 export function parseHash(hash) {
@@ -18,6 +19,8 @@ export function parseHash(hash) {
   if (run) state.run = run;
   const node = params.get('node');
   if (node !== null && /^-?\d+$/.test(node)) state.node = Number(node);
+  const step = params.get('step');
+  if (step !== null && /^\d+$/.test(step)) state.step = Number(step);
   const layout = params.get('layout');
   if (LAYOUTS.includes(layout)) state.layout = layout;
   const view = params.get('view');
@@ -41,6 +44,7 @@ export function formatHash(state) {
   const parts = [];
   if (state.run) parts.push(`run=${encodeURIComponent(state.run)}`);
   if (state.node !== null && state.node !== undefined) parts.push(`node=${state.node}`);
+  if (state.step !== null && state.step !== undefined) parts.push(`step=${state.step}`);
   if (state.layout && state.layout !== DEFAULTS.layout) parts.push(`layout=${state.layout}`);
   if (state.view) parts.push(`view=${state.view}`);
   if (state.tab && state.tab !== DEFAULTS.tab) parts.push(`tab=${state.tab}`);

@@ -26,6 +26,7 @@ import { ALL_STATUSES } from './statuses.js';
 import { TreeStore } from './treestore.js';
 import { TreeView } from './treeview.js';
 import { viewFromText, viewToText } from './view.js';
+import { Walkthrough } from './walkthrough.js';
 import { formatCount } from './format.js';
 
 const SERIES_POINTS = 100000; // the most the server sends; the chart reduces per pixel itself
@@ -76,8 +77,10 @@ export class Inspector {
     // Painters, in order: apply live events first, then draw what they changed.
     this.scheduler.on('live', () => this._applyLive());
     this.scheduler.on('bounds', () => this._paintBounds());
+    this.scheduler.on('cursor', () => this._paintCursor());
     this.scheduler.on('charts', () => this._paintCharts());
     this.plotly = null; // loaded once the first tree is drawn (see _needPlotly)
+    this.walk = new Walkthrough(this);
     this._bind();
   }
 
@@ -91,6 +94,8 @@ export class Inspector {
     const token = ++this._token;
     this.runId = runId;
     this.exporter.setRun(runId);
+    this.walk.setRun(runId);
+    this._pendingStep = state.step ?? null;
     this.series = new BoundSeries();
     this.axis = state.axis ?? 'nodes';
     this.tab = state.tab ?? 'bounds';
@@ -154,6 +159,8 @@ export class Inspector {
     this._loadSeries(token, this.axis);
     if (store.live) this._startLive(token, null, store, store.events - 1);
     else this.findings.open(runId);
+    if (this._pendingStep !== null && !store.live) this.walk.start(this._pendingStep); // #run=…&step=k
+    this._pendingStep = null;
   }
 
   /** Run plotly's script now (after the first tree draw, or at once without a tree). */
@@ -172,6 +179,7 @@ export class Inspector {
   }
 
   close() {
+    this.walk.close();
     this.feed?.stop();
     this.feed = null;
     this.findings.close();
@@ -201,6 +209,7 @@ export class Inspector {
       if (row >= 0) this.selectRow(row, { centre: !this.tree.pendingView, push: false });
     }
     this.branchingVersion = -1; // computed when the table is first shown
+    this.walk.setStore(store);
     this.scheduler.mark('charts', 'bounds');
   }
 
@@ -249,6 +258,7 @@ export class Inspector {
       onEnd: (info) => this._liveEnded(token, info),
     });
     this.feed.start(lastId);
+    this.walk.syncAvailability(); // no walkthrough until the search ends
     // The run log may not exist before the first node: ask for findings only then.
     this._findingsLive = false;
     if (store.n > 0) this._followFindings();
@@ -287,15 +297,32 @@ export class Inspector {
             this.selectId(id);
           }
         }
-        if (now - this._lastCharts > LIVE_CHART_MS || feed.ended) {
-          this._lastCharts = now;
-          this.legend.setCounts(countByStatus(store.status, store.n));
-          this.scheduler.mark('bounds', 'charts');
-        } else setTimeout(() => this.scheduler.mark('live'), LIVE_CHART_MS);
+        this._chartsDue = true;
         showFigures(this.liveFigures);
       }
     }
+    if (this._chartsDue) this._refreshLiveCharts(feed, store);
     this._showLiveState();
+  }
+
+  /**
+   * Legend counts and charts follow a live run at most every LIVE_CHART_MS. A refresh
+   * put off stays due until it is done, even when no further batch comes (the last
+   * batch of a run often lands just after a refresh).
+   */
+  _refreshLiveCharts(feed, store) {
+    const now = performance.now();
+    if (now - this._lastCharts > LIVE_CHART_MS || !feed || feed.ended) {
+      this._chartsDue = false;
+      this._lastCharts = now;
+      this.legend.setCounts(countByStatus(store.status, store.n));
+      this.scheduler.mark('bounds', 'charts');
+    } else if (!this._chartsTimer) {
+      this._chartsTimer = setTimeout(() => {
+        this._chartsTimer = null;
+        this.scheduler.mark('live');
+      }, LIVE_CHART_MS);
+    }
   }
 
   /** A live run's sense comes from its header, which the stream does not carry. */
@@ -339,6 +366,7 @@ export class Inspector {
 
   async _liveEnded(token, info) {
     this.liveEnd = info;
+    this.walk.syncAvailability();
     this.scheduler.mark('live'); // the last events are applied, then the bar says finished
     try {
       const d = await api.run(this.runId);
@@ -384,6 +412,10 @@ export class Inspector {
   selectRow(row, { centre = false, push = true } = {}) {
     const store = this.store;
     if (!store) return;
+    if (this.walk.on) { // the walkthrough: a node is reached through its step
+      if (row >= 0) this.walk.goToRow(row);
+      return;
+    }
     this.tree.select(row, { centre });
     if (row < 0) {
       this.panel.clear();
@@ -488,6 +520,20 @@ export class Inspector {
         }
         break;
       case 'help': toggleHelp(); break;
+      case 'walk-toggle': this.walk.toggle(); break;
+      case 'walk-next': this.walk.go(this.walk.step + 1); break;
+      case 'walk-prev': this.walk.go(this.walk.step - 1); break;
+      case 'walk-first': this.walk.go(0); break;
+      case 'walk-last': this.walk.go(this.walk.total - 1); break;
+      case 'walk-play': this.walk.togglePlay(); break;
+      case 'walk-faster': this.walk.faster(1); break;
+      case 'walk-slower': this.walk.faster(-1); break;
+      case 'walk-incumbent': this.walk.jump('incumbent', 1); break;
+      case 'walk-incumbent-back': this.walk.jump('incumbent', -1); break;
+      case 'walk-prune': this.walk.jump('prune', 1); break;
+      case 'walk-prune-back': this.walk.jump('prune', -1); break;
+      case 'walk-finding': this.walk.jump('finding', 1); break;
+      case 'walk-finding-back': this.walk.jump('finding', -1); break;
       default: break;
     }
   }
@@ -524,7 +570,10 @@ export class Inspector {
     if (state.axis && state.axis !== this.axis) this.setAxis(state.axis);
     const v = viewFromText(state.view);
     if (v) this.tree._setView(v);
-    if (state.node !== null && state.node !== undefined && this.store &&
+    if (state.step !== null && state.step !== undefined && this.store) {
+      if (!this.walk.on || this.walk.step !== state.step) this.walk.go(state.step);
+    } else if (this.walk.on && state.step === null) this.walk.stop();
+    if (state.node !== null && state.node !== undefined && this.store && !this.walk.on &&
         this.store.id[this.tree.selected] !== state.node) this.selectId(state.node, { centre: !v, push: false });
     this._syncControls();
   }
@@ -545,12 +594,19 @@ export class Inspector {
   _paintBounds() {
     if (this.tab !== 'bounds' || !this.bounds.Plotly) return;
     this.bounds.setSeries(this.series, this.axis, this.store?.sense ?? this.figures?.sense);
+    this.bounds.setCursor(this.walk.cursorX(this.axis));
     const t0 = performance.now();
     this.bounds.render().then(() => {
       this.timings.boundsDrawn = performance.now();
       this.timings.boundsMs = this.timings.boundsDrawn - t0;
       $('boundsNote').textContent = this.bounds.note();
     });
+  }
+
+  /** The walkthrough's cursor on the bounds chart (one shape moved, the traces stay). */
+  _paintCursor() {
+    this.bounds.setCursor(this.walk.cursorX(this.axis));
+    if (this.tab === 'bounds') this.bounds.moveCursor();
   }
 
   _paintCharts() {
@@ -649,6 +705,7 @@ export class Inspector {
     if (isHelpOpen() && e.key !== 'Escape' && e.key !== '?') return;
     const action = actionFor(e.key);
     if (!action) return;
+    if (action.startsWith('walk-') && action !== 'walk-toggle' && !this.walk.on) return;
     if (action === 'pan') {
       const step = 80;
       const d = { ArrowLeft: [step, 0], ArrowRight: [-step, 0], ArrowUp: [0, step], ArrowDown: [0, -step] }[e.key];

@@ -94,7 +94,10 @@ export function dominantStatus(counts, r, mask) {
  * scene: {n, parent, children: {start, list, roots}, x, xMin, xMax, y, yLo, yHi,
  *         status, depth, size, counts, folded (Uint8Array|null), foldedCount, rareRows}
  * view:  {x0, x1, y0, y1, width, height}  (layout rectangle -> CSS pixels)
- * opts:  {statusMask, depthMin, depthMax, lodPx, margin}
+ * opts:  {statusMask, depthMin, depthMax, lodPx, margin, reveal}
+ *   reveal (the walkthrough): {rank, limit, span}: only rows with 0 <= rank[row] <= limit
+ *   are drawn (a node is solved after its parent, so a hidden node hides its subtree);
+ *   a narrow subtree becomes a bar only when wholly revealed (span[row] <= limit).
  * Screen coordinates: sx = (x - x0) * width / (x1 - x0), the same for y.
  */
 export function planFrame(scene, view, opts, out) {
@@ -120,9 +123,14 @@ export function planFrame(scene, view, opts, out) {
   const H = view.height + margin;
   if (out.stack.length < scene.n + 1) out.stack = new Int32Array(scene.n + 1);
   const stack = out.stack;
+  const reveal = opts.reveal ?? null;
+  const rank = reveal ? reveal.rank : null;
+  const limit = reveal ? reveal.limit : 0;
+  const span = reveal ? reveal.span : null;
   let top = 0;
   for (let i = roots.length - 1; i >= 0; i--) {
     const r = roots[i];
+    if (rank !== null && !(rank[r] >= 0 && rank[r] <= limit)) continue;
     if (xMax[r] >= X0 && xMin[r] <= X1 && yHi[r] >= Y0 && yLo[r] <= Y1) stack[top++] = r;
   }
   let visited = 0;
@@ -136,7 +144,7 @@ export function planFrame(scene, view, opts, out) {
       out.addMark(r, sx, sy, sy, MARK_FOLDED, s < 0 ? status[r] : s);
       continue;
     }
-    if (size[r] > 1 && (xMax[r] - xMin[r]) * kx < lodPx) {
+    if (size[r] > 1 && (xMax[r] - xMin[r]) * kx < lodPx && (span === null || span[r] <= limit)) {
       const s = dominantStatus(counts, r, mask);
       if (s >= 0) {
         let bottom = yHi[r];
@@ -151,6 +159,7 @@ export function planFrame(scene, view, opts, out) {
     for (let j = start[r]; j < start[r + 1]; j++) {
       const c = list[j];
       if (depth[c] > dMax) continue;
+      if (rank !== null && !(rank[c] >= 0 && rank[c] <= limit)) continue;
       const cx = (x[c] - ox) * kx;
       const cy = (y[c] - oy) * ky + (inherited !== null && inherited[c] ? shift : 0);
       if (!((sx < -margin && cx < -margin) || (sx > W && cx > W) ||
@@ -172,9 +181,12 @@ function addRare(scene, view, opts, out, kx, ky) {
   const mask = opts.statusMask;
   const dMin = opts.depthMin ?? 0;
   const dMax = opts.depthMax ?? Infinity;
+  const rank = opts.reveal ? opts.reveal.rank : null;
+  const limit = opts.reveal ? opts.reveal.limit : 0;
   for (let i = 0; i < rare.length; i++) {
     const r = rare[i];
     if (r < 0 || r >= scene.n) continue;
+    if (rank !== null && !(rank[r] >= 0 && rank[r] <= limit)) continue;
     const st = status[r];
     if (!((mask >> st) & 1) || depth[r] < dMin || depth[r] > dMax) continue;
     const sx = (x[r] - view.x0) * kx;

@@ -56,6 +56,7 @@ function route(opts = {}) {
     if (!inspector) {
       inspector = new Inspector({ onState: (partial) => writeHash(partial) });
       window.undergrowth.inspector = inspector;
+      window.undergrowth.walkthrough = inspector.walk;
     }
     inspector.open(state.run, state, opts);
   } else {
@@ -80,5 +81,5 @@ document.addEventListener('keydown', (e) => {
 });
 
 // A handle for tests and benchmarks (read-only use).
-window.undergrowth = { inspector: null, compare: null, library, state: () => state };
+window.undergrowth = { inspector: null, walkthrough: null, compare: null, library, state: () => state };
 route();

@@ -12,6 +12,7 @@ import { niceStep } from './view.js';
 
 const BACKGROUND = '#fbfbf8';
 const HIGHLIGHT_COLOUR = '#5a2d82'; // nodes a finding points at: a colour no status uses
+export const NOTE_COLOUR = '#8c4f12'; // the tag on a node that carries a note (also in app.css)
 const AXIS_TEXT = '#5b6169';
 const FONT = '11px system-ui, -apple-system, "Segoe UI", sans-serif';
 
@@ -103,6 +104,7 @@ export class TreeRenderer {
     if (deco.layout === 'bound') this._incumbentLine(deco);
     this._incumbentNodes(deco, r);
     this._highlight(deco, r);
+    this._notes(deco, r);
     this._path(deco);
     this._selection(deco, r);
     this._caption(deco);
@@ -206,6 +208,34 @@ export class TreeRenderer {
     ctx.lineWidth = 2;
     ctx.strokeStyle = HIGHLIGHT_COLOUR;
     ctx.stroke();
+  }
+
+  /** Rows carrying a note: a small tag with a cut corner above the node's right, one path. */
+  _notes(deco, r) {
+    const rows = deco.noteRows;
+    if (!rows?.length) return;
+    const ctx = this.ctx;
+    const off = Math.max(r, 3.5) + 1;
+    const s = 8;
+    ctx.beginPath();
+    for (const row of rows) {
+      if (deco.hidden?.(row)) continue;
+      const [x, y] = this._screen(deco, row);
+      if (x < -20 || x > this.width + 20 || y < -20 || y > this.height + 20) continue;
+      const left = x + off - 1;
+      const top = y - off - s + 1;
+      ctx.moveTo(left, top);
+      ctx.lineTo(left + s - 3, top);
+      ctx.lineTo(left + s, top + 3);
+      ctx.lineTo(left + s, top + s);
+      ctx.lineTo(left, top + s);
+      ctx.closePath();
+    }
+    ctx.lineWidth = 2.5;
+    ctx.strokeStyle = '#ffffff';
+    ctx.stroke();
+    ctx.fillStyle = NOTE_COLOUR;
+    ctx.fill();
   }
 
   _path(deco) {

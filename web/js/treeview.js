@@ -34,6 +34,8 @@ export class TreeView {
     this.selected = -1;
     this.pathRows = null;
     this.highlightRows = null; // rows a finding points at (Int32Array), outlined
+    this.reveal = null; // the walkthrough: {rank, limit, span, incumbent} (only solved rows drawn)
+    this.noteRows = null; // rows carrying a reviewer's note (Int32Array), tagged
     this.hover = null; // {x, y} pointer position over the canvas
     this.lastDraw = { ms: 0, marks: 0, edges: 0, visited: 0 };
     this.drawCount = 0;
@@ -50,9 +52,32 @@ export class TreeView {
     this.selected = -1;
     this.pathRows = null;
     this.highlightRows = null;
+    this.reveal = null;
+    this.noteRows = null;
     this.view = null;
     this.follow = true;
     this.mark();
+  }
+
+  /**
+   * The walkthrough's step: draw only rows with 0 <= rank[row] <= limit; `span` is
+   * each subtree's last step (walkplan.subtreeLastStep), `incumbent` the incumbent
+   * after the step (model sense, null for none). null shows the whole tree again.
+   */
+  setReveal(reveal) {
+    this.reveal = reveal;
+    this.mark();
+  }
+
+  /** Tag these rows as carrying a note; null clears. */
+  setNoteRows(rows) {
+    this.noteRows = rows && rows.length ? rows : null;
+    this.mark();
+  }
+
+  _revealed(row) {
+    const rv = this.reveal;
+    return !rv || (rv.rank[row] >= 0 && rv.rank[row] <= rv.limit);
   }
 
   /** Outline these rows (a finding's nodes); null clears. */
@@ -168,7 +193,7 @@ export class TreeView {
   }
 
   incumbentY() {
-    const v = this.store?.incumbentValue;
+    const v = this.reveal ? (this.reveal.incumbent ?? NaN) : this.store?.incumbentValue;
     if (!Number.isFinite(v)) return NaN;
     return this.store.sense === 'max' ? -v : v;
   }
@@ -206,6 +231,7 @@ export class TreeView {
     planFrame(fs, view, {
       statusMask: this.statusMask, depthMin: this.depthMin, depthMax: this.depthMax, lodPx: 1,
       clipY: this.layout === 'depth' && Number.isFinite(this.depthMax) ? this.depthMax : undefined,
+      reveal: this.reveal ?? undefined,
     }, this.list);
     const kx = view.width / (view.x1 - view.x0);
     const ky = this.layout === 'depth' ? view.height / (view.y1 - view.y0) : Infinity;
@@ -220,10 +246,12 @@ export class TreeView {
   }
 
   _deco(radius) {
+    const shown = (rows) => (rows && this.reveal ? rows.filter((r) => this._revealed(r)) : rows);
     return {
       layout: this.layout, view: this.view ?? { x0: 0, x1: 1, y0: 0, y1: 1 }, scene: this.scene,
-      selected: this.selected, pathRows: this.pathRows, highlightRows: this.highlightRows,
-      incumbentRows: this.store?.incumbentRows ?? [], incumbentY: this.incumbentY(),
+      selected: this.selected, pathRows: this.pathRows, highlightRows: shown(this.highlightRows),
+      noteRows: shown(this.noteRows),
+      incumbentRows: shown(this.store?.incumbentRows ?? []), incumbentY: this.incumbentY(),
       sense: this.store?.sense, markRadius: radius,
       hidden: (row) => this.scene.isHiddenByFold(row),
     };
