@@ -202,12 +202,7 @@ export class TreeRenderer {
       if (x < -s || x > this.width + s || y < -s || y > this.height + s) continue;
       ctx.rect(x - s, y - s, 2 * s, 2 * s);
     }
-    ctx.lineWidth = 4;
-    ctx.strokeStyle = 'rgba(255,255,255,0.9)';
-    ctx.stroke();
-    ctx.lineWidth = 2;
-    ctx.strokeStyle = HIGHLIGHT_COLOUR;
-    ctx.stroke();
+    strokeOnHalo(ctx, 4, 2, HIGHLIGHT_COLOUR);
   }
 
   /** Rows carrying a note: a small tag with a cut corner above the node's right, one path. */
@@ -248,12 +243,7 @@ export class TreeRenderer {
       if (k === 0) ctx.moveTo(x, y);
       else ctx.lineTo(x, y);
     });
-    ctx.lineWidth = 3;
-    ctx.strokeStyle = 'rgba(255,255,255,0.9)';
-    ctx.stroke();
-    ctx.lineWidth = 1.75;
-    ctx.strokeStyle = PATH_COLOUR;
-    ctx.stroke();
+    strokeOnHalo(ctx, 3, 1.75, PATH_COLOUR);
   }
 
   _selection(deco, r) {
@@ -367,4 +357,14 @@ export class TreeRenderer {
   bindScene(scene) {
     this._scene = scene;
   }
+}
+
+/** Stroke the current path twice: a wide light halo, then the colour, so it reads on any mark. */
+function strokeOnHalo(ctx, haloWidth, width, colour) {
+  ctx.lineWidth = haloWidth;
+  ctx.strokeStyle = 'rgba(255,255,255,0.9)';
+  ctx.stroke();
+  ctx.lineWidth = width;
+  ctx.strokeStyle = colour;
+  ctx.stroke();
 }
