@@ -21,6 +21,7 @@ from undergrowth.report.bounds_svg import nice_ticks
 from undergrowth.report.page import format_gap, format_value
 from undergrowth.report.palette import STATUS_STYLE
 from undergrowth.report.tree_svg import draw_tree
+from undergrowth.runlog import notes
 from undergrowth.runlog.codes import STATUSES
 
 ROOT = Path(__file__).resolve().parent.parent
@@ -124,34 +125,33 @@ def test_the_page_refers_to_nothing_outside_itself(depot_report):
     assert "@media print" in html
 
 
-def test_notes_are_listed_and_marked_on_their_nodes(tmp_path, monkeypatch):
-    notes_module = pytest.importorskip("undergrowth.runlog.notes",
-                                       reason="the notes sidecar reader (runlog/notes.py)")
+def test_notes_are_listed_and_marked_on_their_nodes(tmp_path):
     run = _copy_run(DEPOT, tmp_path)
-    # the note shape of docs/events-contract.md ("note"); read through the sidecar reader
-    notes = [{"kind": "note", "id": "n1", "node": 5, "order": 5, "author": "Ines",
-              "text": "Here the bound <stalls> & the rule\nkeeps diving.",
-              "created": "2026-12-02T10:00:00Z"},
-             {"kind": "note", "id": "n2", "node": None, "order": None, "author": "Tom",
-              "text": "Tighten the depot rows first.", "created": "2026-12-02T10:05:00Z"}]
-    asked: list[Path] = []
-
-    def read_notes(path: Path) -> list[dict]:
-        asked.append(Path(path))
-        return notes
-
-    monkeypatch.setattr(notes_module, "read_notes", read_notes)
+    # through the real sidecar beside the run (runlog.notes), as a reviewer leaves them
+    notes.add_note(run, node=5, text="Here the bound <stalls> & the rule\nkeeps diving.",
+                   author="Ines")
+    notes.add_note(run, order=0, text="Tighten the depot rows first.", author="Tom")
     html = _report(tmp_path, run)
-    assert asked == [run]  # the run's own sidecar
     items = re.findall(r'<li class="note" id="run-1-note-(\d)">(.*?)</li>', html, re.S)
     assert [k for k, _ in items] == ["1", "2"]
-    assert "node 5, step 6" in items[0][1] and "Ines" in items[0][1]
+    # the sidecar keeps what the note names: a node here, a step (order 0) below
+    assert "node 5 \u00b7 Ines" in items[0][1]
+    assert "step 1 \u00b7 Tom" in items[1][1]
     assert "Here the bound &lt;stalls&gt; &amp; the rule\nkeeps diving." in items[0][1]
-    assert "the whole run" in items[1][1] and "Tighten the depot rows first." in items[1][1]
-    # the note on node 5 is a numbered flag on the tree; the whole-run note has none
+    assert "Tom" in items[1][1] and "Tighten the depot rows first." in items[1][1]
+    # each note is a numbered flag on its node in the tree picture (the second is the root's)
     tree = re.search(r'<svg class="tree-picture".*?</svg>', html, re.S).group(0)
     flags = re.findall(r'<g class="note-mark"><title>note (\d) on node (\d+):', tree)
-    assert flags == [("1", "5")]
+    assert flags == [("1", "5"), ("2", "0")]
+
+
+def test_the_api_report_has_the_notes_this_server_keeps_for_a_sample(tmp_path):
+    # a sample's folder is never written: its notes live on the server's shelf
+    with client_for(tmp_path) as c:
+        assert c.post(f"/api/runs/{DEPOT}/notes",
+                      json={"node": 5, "text": "kept on the shelf"}).status_code == 201
+        html = c.get(f"/api/report?run={DEPOT}").text
+    assert "kept on the shelf" in html
 
 
 # ------------------------------------------------------------------ CLI, two runs

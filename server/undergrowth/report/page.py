@@ -416,10 +416,12 @@ class _RunView:
         for k, note in enumerate(notes, start=1):
             node = note.get("node")
             order = note.get("order")
+            where = [f"node {_h(node)}"] if node is not None else []
+            if isinstance(order, int):
+                where.append(f"step {int(order) + 1:,}")
             rows.append(f'<li class="note" id="{self.anchor}-note-{k}"><span class="note-no">'
                         f"{k}</span><div><p class=\"note-meta\">"
-                        + (f"node {_h(node)}" if node is not None else "the whole run")
-                        + (f", step {int(order) + 1:,}" if isinstance(order, int) else "")
+                        + (", ".join(where) or "the whole run")
                         + f" \u00b7 {_h(note.get('author') or 'anonymous')}"
                         + (f" \u00b7 {_h(note.get('created'))}" if note.get("created") else "")
                         + f'</p><p class="note-text">{_h(note.get("text") or "")}</p></div></li>')

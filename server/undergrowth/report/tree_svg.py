@@ -319,13 +319,24 @@ def tree_picture(table: RunTable, layout: TreeLayout, *, notes: Sequence[dict] =
                 row, "", f"node {node}: new incumbent {value(obj)} (from {SOURCES[src]})")))
     for k, note in enumerate(notes, start=1):
         row = _row(table, note.get("node"))
+        if row is None:
+            row = _row_of_step(table, note.get("order"))  # a note on a step: its node
         if row is not None:
             text = str(note.get("text") or "")
             short = text if len(text) <= 140 else text[:139] + "…"
-            special.append(("note", TreeMark(row, str(k), f"note {k} on node {note['node']}: "
+            node = int(c["id"][row])
+            special.append(("note", TreeMark(row, str(k), f"note {k} on node {node}: "
                                                           f"{short}")))
     return draw_tree(c["parent_row"], c["depth"], c["status"], layout, special=special,
                      id_prefix=id_prefix, title=title)
+
+
+def _row_of_step(table: RunTable, order: object) -> int | None:
+    """The row solved at processing order ``order``, if the run has one."""
+    if order is None or isinstance(order, bool) or not isinstance(order, int):
+        return None
+    rows = np.flatnonzero(table.columns["order"] == order)
+    return int(rows[0]) if len(rows) else None
 
 
 def _row(table: RunTable, node: object) -> int | None:

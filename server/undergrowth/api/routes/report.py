@@ -3,7 +3,7 @@
 
 from __future__ import annotations
 
-from typing import Annotated, Any
+from typing import Annotated
 
 import anyio
 from fastapi import APIRouter, Query
@@ -17,18 +17,13 @@ from ..ids import check_id
 from ..library import RunFile
 from ._common import errors
 from .findings import _problem_for  # the model library lookup the findings use
+from .notes import run_notes  # where this server keeps notes (its shelf for samples)
 
 router = APIRouter(prefix="/api", tags=["report"])
 
 # A report of more runs than this is a comparison study: `undergrowth compare` is
 # the tool for it, and each run adds its tree picture to the page.
 MAX_RUNS = 12
-
-
-def _notes(ctx: ServerContext, rf: RunFile) -> list[dict[str, Any]]:
-    from ...runlog.notes import read_notes
-
-    return read_notes(rf.path)
 
 
 def _run(ctx: ServerContext, rf: RunFile) -> ReportRun:
@@ -44,7 +39,7 @@ def _run(ctx: ServerContext, rf: RunFile) -> ReportRun:
     note = (f"model checks from the model library's {model_id!r}" if problem is not None
             else "model checks skipped: the model library holds no model of this name and size")
     return ReportRun(table=table, label=rf.id, problem=problem, model_note=note,
-                     notes=_notes(ctx, rf), layout=layout)
+                     notes=run_notes(ctx, rf), layout=layout)
 
 
 def _build(ctx: ServerContext, files: list[RunFile]) -> bytes:
