@@ -59,6 +59,8 @@ class Search:
         self._start = None if start is None else np.asarray(start, dtype=float)
         self.result: SearchResult | None = None
         self._int_idx = np.flatnonzero(problem.integrality)
+        # Pure integer models skip the gathers and scatters between x and its integer part.
+        self._all_integer = len(self._int_idx) == problem.num_cols
         self._c_min = self.sign * np.asarray(problem.c, dtype=float)
         self._q_min = None if problem.Q is None else self.sign * problem.Q
         # Small matrices are multiplied dense: scipy's sparse product costs tens of
@@ -123,6 +125,7 @@ class Search:
         rng = np.random.default_rng(s.seed)
         open_list = OpenList(s.select, down_first=s.down_first)
         int_idx = self._int_idx
+        all_integer = self._all_integer
         int_tol = s.integrality_tolerance
         sign, offset = self.sign, p.offset
 
@@ -284,15 +287,18 @@ class Search:
                     status = "pruned"
                 else:
                     x = res.x
-                    xi = x[int_idx]
+                    xi = x if all_integer else x[int_idx]
                     ri = np.rint(xi)
                     frac_mask = np.abs(xi - ri) > int_tol
                     nfrac = int(frac_mask.sum())
                     ev["fractional"] = nfrac
                     if nfrac == 0:
                         status = "integral"
-                        xs = x.copy()
-                        xs[int_idx] = ri
+                        if all_integer:
+                            xs = ri
+                        else:
+                            xs = x.copy()
+                            xs[int_idx] = ri
                         # value at the snapped point: users check it against their own
                         # evaluation, and it drops the relaxation's round-off
                         val = self._min_objective(xs)
@@ -300,8 +306,11 @@ class Search:
                             after.extend(new_incumbent(val, xs, node, order, "integral"))
                     else:
                         if s.rounding:
-                            xr = x.copy()
-                            xr[int_idx] = ri
+                            if all_integer:
+                                xr = ri
+                            else:
+                                xr = x.copy()
+                                xr[int_idx] = ri
                             val = self._min_objective(xr)
                             # Objective first: the row check is the dear part. Rounding a
                             # value inside integral bounds stays inside them.
