@@ -47,73 +47,20 @@ def _install_cpu_meter() -> None:
     rx.Relaxation.solve = metered
 
 
-_HIGHS_CPU = [0.0]
-
-
-class _MeteredHighs:
-    """Stands in for a Relaxation's Highs object and adds up the thread CPU time
-    spent inside each of its calls (bounds, bases, options, run, read-back). The
-    proxy's own cost is left on the engine's side, so the split is conservative."""
-
-    def __init__(self, h) -> None:
-        self._h = h
-
-    def __getattr__(self, name):
-        target = getattr(self._h, name)
-        if not callable(target):
-            return target
-
-        def call(*a, **k):
-            t = time.thread_time()
-            try:
-                return target(*a, **k)
-            finally:
-                _HIGHS_CPU[0] += time.thread_time() - t
-
-        setattr(self, name, call)  # later calls skip __getattr__
-        return call
-
-
-def _install_highs_meter() -> None:
-    from undergrowth.search import relaxation as rx
-
-    original = rx.Relaxation.__init__
-    if getattr(original, "_metered", False):
-        return
-
-    def metered_init(self, *a, **k):
-        original(self, *a, **k)
-        self._h = _MeteredHighs(self._h)
-
-    metered_init._metered = True
-    rx.Relaxation.__init__ = metered_init
-
-
-def engine_run(problem, rule: str, nodes: int, *, split_highs: bool = False):
-    """(events, wall seconds, result, CPU µs per node outside solve()); with
-    ``split_highs``, the last figure is the CPU outside every HiGHS call instead."""
-    from undergrowth.search import relaxation as rx
-
+def engine_run(problem, rule: str, nodes: int):
+    """(events, wall seconds, result, CPU µs per node outside solve())."""
     _install_cpu_meter()
-    plain_init = rx.Relaxation.__init__
-    if split_highs:
-        _install_highs_meter()
-    _HIGHS_CPU[0] = 0.0
     s = SearchSettings(branching=rule, select="best-bound", node_limit=nodes, gap=0,
                        absolute_gap=0, rounding=True)
     search = Search(problem, s)
     _SOLVE_CPU[0] = 0.0
-    try:
-        t0 = time.perf_counter()
-        c0 = time.thread_time()
-        events = list(search.events())
-        wall = time.perf_counter() - t0
-        cpu = time.thread_time() - c0
-    finally:
-        rx.Relaxation.__init__ = plain_init
+    t0 = time.perf_counter()
+    c0 = time.thread_time()
+    events = list(search.events())
+    wall = time.perf_counter() - t0
+    cpu = time.thread_time() - c0
     r = search.result
-    inside = _HIGHS_CPU[0] if split_highs else _SOLVE_CPU[0]
-    own_us = (cpu - inside) / max(r.nodes, 1) * 1e6
+    own_us = (cpu - _SOLVE_CPU[0]) / max(r.nodes, 1) * 1e6
     return events, wall, r, own_us
 
 
@@ -197,11 +144,10 @@ def main() -> None:
         models = models[:1] + models[3:4] + models[5:]
     rules = ("most-fractional", "pseudocost")
     print("own CPU µs/node: thread CPU time per node outside Relaxation.solve (HiGHS's run()")
-    print("and the read-back of its answer); of which Python: outside every HiGHS call")
-    print("(bound changes, basis get/set, options too; the meter's own cost stays on the Python")
-    print("side), measured in separate runs of the same tree. Best of --repeat runs each.")
+    print("and the read-back of its answer); bound changes and basis get/set count as own work.")
+    print(f"Best of {args.repeat} runs each (CPU times on this shared machine vary up to 2x).")
     print(f"{'model':<18}{'rule':<17}{'nodes':>7}{'engine n/s':>12}{'baseline n/s':>14}"
-          f"{'ratio':>7}{'own CPU µs/node':>17}{'of which Python':>17}{'wall outside run()':>20}")
+          f"{'ratio':>7}{'own CPU µs/node':>17}{'wall outside run()':>20}")
     for name, problem in models:
         for rule in rules:
             # Best of a few repeats: this shared machine's CPU times vary by up to 2x
@@ -209,17 +155,13 @@ def main() -> None:
             runs = [engine_run(problem, rule, args.nodes) for _ in range(args.repeat)]
             events, wall, r, _ = min(runs, key=lambda run: run[1])  # the fastest run
             own_us = min(u for _, _, _, u in runs)
-            split = [engine_run(problem, rule, args.nodes, split_highs=True)
-                     for _ in range(args.repeat)]
-            assert all(len(e) == len(events) for e, _, _, _ in runs + split)  # same tree
-            python_us = min(u for _, _, _, u in split)
+            assert all(len(e) == len(events) for e, _, _, _ in runs)  # the same tree
             base_s, base_n = baseline_replay(problem, events)
             eng_rate = r.nodes / wall
             base_rate = base_n / base_s
             share = (wall - r.lp_seconds) / wall
             print(f"{name:<18}{rule:<17}{r.nodes:>7}{eng_rate:>12.0f}{base_rate:>14.0f}"
-                  f"{eng_rate / base_rate:>6.1f}x{own_us:>17.0f}{python_us:>17.0f}"
-                  f"{100 * share:>19.0f}%")
+                  f"{eng_rate / base_rate:>6.1f}x{own_us:>17.0f}{100 * share:>19.0f}%")
     print()
     print("HiGHS threads option, most-fractional, knapsack-100:")
     for label, rate in measure_options(models[1][1] if not args.quick else models[0][1],
