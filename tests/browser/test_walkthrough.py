@@ -41,6 +41,27 @@ def solved_by(base: str, run: str, order: int) -> int:
     return sum(1 for o in orders if 0 <= o <= order)
 
 
+def statuses_solved_by(base: str, run: str, order: int) -> dict[str, int]:
+    """Nodes per status among those solved at or before processing order `order`."""
+    tree = httpx.get(f"{base}/api/runs/{run}/tree", params={"format": "json"}).json()
+    names = tree["statuses"]
+    out: dict[str, int] = {}
+    for o, code in zip(tree["columns"]["order"], tree["columns"]["status"], strict=True):
+        if 0 <= o <= order:
+            out[names[code]] = out.get(names[code], 0) + 1
+    return out
+
+
+def legend_counts(page: Any) -> dict[str, int]:
+    """The legend's visible status buttons and their counts."""
+    return page.evaluate("""() => Object.fromEntries(Array.from(
+        document.querySelectorAll('#legend button[data-status]'))
+        .filter((b) => !b.hidden && b.offsetParent !== null)
+        .map((b) => [b.dataset.status,
+                     Number(b.querySelector('.count').textContent.replace(/[^0-9]/g, ''))])
+        .filter(([, n]) => n > 0))""")
+
+
 def wait_for_step(page: Any, k: int) -> None:
     page.wait_for_function(f"() => {{ const w = window.undergrowth.walkthrough;"
                            f" return w && w.on && w.step === {k}; }}")
@@ -101,6 +122,8 @@ def test_narration_and_visible_nodes_at_chosen_steps(page, server):
                              " return t.store.id[t.selected]; }") == st["node"]
         assert page.inner_text('#walk-narration [data-field="open"]') == f"{st['open']:,}"
         assert page.inner_text("#walk-counter") == f"Step {k + 1} of 111"
+        # the legend counts what the tree shows at this step, by status
+        assert legend_counts(page) == statuses_solved_by(server.url, DEPOT, st["order"]), k
 
     check(0)
     # a branched step through the timeline slider's keys: one step right at a time
@@ -145,6 +168,9 @@ def test_a_step_link_opens_the_walkthrough_at_that_step(page, server):
     page.wait_for_function("() => !location.hash.includes('step=')")
     assert page.evaluate(STATE)["visible"] == 149
     page.wait_for_selector('#node-panel[data-node]')
+    # and the legend counts the whole run again (the run's summary)
+    by_status = httpx.get(f"{server.url}/api/runs/{DEPOT}").json()["summary"]["nodes_by_status"]
+    assert legend_counts(page) == {k: v for k, v in by_status.items() if v}
 
 
 @pytest.fixture

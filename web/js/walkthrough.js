@@ -11,7 +11,8 @@ import { $, $all, el } from './dom.js';
 import { formatCount, formatGap, formatValue } from './format.js';
 import { statusIcon } from './legend.js';
 import { NotesPanel } from './notespanel.js';
-import { STATUS_NAMES } from './statuses.js';
+import { countByStatus } from './stats.js';
+import { STATUS_COUNT, STATUS_NAMES } from './statuses.js';
 import { parentsFirst } from './tidy.js';
 import {
   clampSpeed, clampStep, counterText, findFlagged, nextAfter, notesByStep, playedTo, prevBefore,
@@ -129,6 +130,26 @@ export class Walkthrough {
     const topDown = parentsFirst(s.parent, s.n) ? null : scene?.topDown ?? null;
     this.span = subtreeLastStep(s.parent, this.ranks.rank, s.n, topDown);
     this._ranksVersion = s.version;
+    this._counts = null; // the legend's counts follow the new ranks
+  }
+
+  /**
+   * The legend counts the nodes the tree shows at step k. Moved step by step from the
+   * last count (playing costs one row a step), or counted afresh when that is shorter.
+   */
+  _legendAt(k) {
+    const rows = this.ranks.rows;
+    const status = this.store.status;
+    if (!this._counts || Math.abs(k - this._countsStep) > k + 1) {
+      this._counts = new Uint32Array(STATUS_COUNT);
+      this._countsStep = -1;
+    }
+    const c = this._counts;
+    let at = this._countsStep;
+    while (at < k) c[status[rows[++at]]]++;
+    while (at > k) c[status[rows[at--]]]--;
+    this._countsStep = at;
+    this.ins.legend.setCounts(c);
   }
 
   // ------------------------------------------------------------ on / off
@@ -180,6 +201,7 @@ export class Walkthrough {
     if (!on) {
       t.setReveal(null);
       t.setNoteRows(null);
+      if (this.store) this.ins.legend.setCounts(countByStatus(this.store.status, this.store.n));
       this.ins.bounds.setCursor(null);
       this.ins.scheduler.mark('cursor');
     }
@@ -227,6 +249,7 @@ export class Walkthrough {
     $('walkNext').disabled = k === total - 1;
     $('walkLast').disabled = k === total - 1;
     this.notesPanel.setTarget({ node: store.id[row], order: store.order[row], step: k });
+    this._legendAt(k);
     this.ins.scheduler.mark('cursor');
     if (cached) this._narrate(k, cached);
     else {
