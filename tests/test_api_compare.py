@@ -9,7 +9,7 @@ import json
 from test_api_support import KNAPSACK, assert_error_shape, client_for, sample_dir
 from undergrowth.analysis.compare import ROW_KEYS, branching_overlap
 from undergrowth.model import read_model
-from undergrowth.runlog import read_run
+from undergrowth.runlog import notes, read_run
 from undergrowth.search import Search, SearchSettings
 
 DEPOT_MODEL = "depot-siting-loose"  # most-fractional / best-bound: 111 nodes (sample runs)
@@ -101,6 +101,29 @@ def test_members_respect_the_worker_cap_and_a_cancel_stops_them_all(tmp_path):
         assert table["runs"] == [first] and table["pending"] == rest
         assert table["rows"][0]["status"] == "cancelled"
         assert_error_shape(c.post(f"/api/groups/{group['id']}/cancel"), 409, "conflict")
+
+
+def test_deleting_a_group_removes_its_runs_and_refuses_while_one_runs(tmp_path):
+    with client_for(tmp_path, max_solves=1) as c:
+        running = c.post("/api/groups", json=LONG_GROUP).json()
+        err = assert_error_shape(c.delete(f"/api/groups/{running['id']}"), 409, "conflict")
+        assert len(err["detail"]["active"]) == 3  # one running, two queued
+        c.post(f"/api/groups/{running['id']}/cancel")
+        wait_group(c, running)
+        ids = [m["run_id"] for m in running["members"]]
+        # (cancelled before its root was solved: a note names node 0 in its sidecar)
+        log = next((tmp_path / "runs").glob(f"{ids[0]}.jsonl*"))
+        notes.add_note(log, node=0, text="goes with the run")
+        r = c.delete(f"/api/groups/{running['id']}")
+        assert r.status_code == 200, r.text
+        # only the member that ran left a log; the queued ones had nothing to delete
+        assert r.json() == {"id": running["id"], "deleted": True, "runs": ids[:1]}
+        assert c.get(f"/api/groups/{running['id']}").status_code == 404
+        assert all(c.get(f"/api/runs/{i}").status_code == 404 for i in ids)
+        assert c.get("/api/groups").json() == []
+        runs_dir = tmp_path / "runs"
+        assert not [p.name for p in runs_dir.iterdir() if p.name.startswith(ids[0])]
+        assert_error_shape(c.delete(f"/api/groups/{running['id']}"), 404, "not-found")
 
 
 def test_a_group_that_does_not_fit_the_queue_is_refused_whole(tmp_path):

@@ -65,6 +65,7 @@ ERROR_CASES = [
      "invalid-note"),
     ("PATCH", f"/api/runs/{DEPOT}/notes/nothere", {"json": {"text": "x"}}, 404, "not-found"),
     ("DELETE", f"/api/runs/{DEPOT}/notes/nothere", {}, 404, "not-found"),
+    ("DELETE", "/api/groups/missing", {}, 404, "not-found"),
 ]
 
 

@@ -121,3 +121,14 @@ def test_a_comparison_started_in_the_library_is_followed_to_its_end(page, server
     assert page.is_hidden("#compare-cancel")
     page.goto(server.url + "/")
     page.wait_for_selector(f'#groups-list li[data-group="{group_id}"]')
+    # a finished comparison can be deleted from the list, with its runs (two clicks)
+    item = page.locator(f'#groups-list li[data-group="{group_id}"]')
+    item.locator("button.group-delete").click()
+    assert "its 2 runs?" in item.locator("button.group-delete").inner_text()
+    item.locator("button.group-delete").click()
+    page.wait_for_selector(f'#groups-list li[data-group="{group_id}"]', state="detached")
+    assert httpx.get(f"{server.url}/api/groups/{group_id}").status_code == 404
+    for member in group["members"]:
+        assert httpx.get(f"{server.url}/api/runs/{member['run_id']}").status_code == 404
+        page.wait_for_selector(f'#runs-body tr[data-run="{member["run_id"]}"]',
+                               state="detached")

@@ -101,6 +101,7 @@ export const api = {
   group: (id) => request(URLS.group(id)),
   startGroup: (body) => postJson(URLS.groups(), body),
   cancelGroup: (id) => request(URLS.groupCancel(id), { method: 'POST' }),
+  deleteGroup: (id) => request(URLS.group(id), { method: 'DELETE' }),
   groupTable: (id) => request(URLS.groupTable(id)),
   compareTable: (ids) => request(URLS.compare(ids)),
   streamUrl: (id) => URLS.stream(id),

@@ -238,8 +238,28 @@ export class LibraryPage {
     list.replaceChildren(...groups.map((g) => el('li', { dataset: { group: g.id } },
       el('a', { href: `#group=${encodeURIComponent(g.id)}` }, `${g.model ?? g.name}: ${g.branching.join(', ')}`),
       ' ', el('span', { class: `badge ${g.state === 'running' ? 'live' : g.state === 'done' ? 'good' : 'warn'}` }, g.state),
+      g.state === 'running' ? null : el('button', { type: 'button', class: 'small ghost group-delete',
+        title: 'Delete this comparison and its runs', onclick: (e) => this._deleteGroup(g, e.currentTarget) },
+      'Delete'),
       el('div', { class: 'muted small' }, `${g.total} runs · ${g.select.join(', ')} · ` +
         `${String(g.created ?? '').replace('T', ' ').slice(0, 16)}`))));
+  }
+
+  /** Two clicks: the first asks, the second deletes the group with its runs. */
+  async _deleteGroup(g, button) {
+    if (button.dataset.confirm !== 'yes') {
+      button.dataset.confirm = 'yes';
+      button.textContent = `Delete it and its ${g.total} runs?`;
+      return;
+    }
+    button.disabled = true;
+    try {
+      await api.deleteGroup(g.id);
+    } catch (err) {
+      button.replaceWith(el('span', { class: 'error small' }, describeError(err)));
+      return;
+    }
+    await Promise.all([this.loadGroups(), this.loadRuns()]);
   }
 
   _solveError(text) {

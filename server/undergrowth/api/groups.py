@@ -102,6 +102,9 @@ class GroupStore:
                     out.setdefault(run["run_id"], group["id"])
         return out
 
+    def delete(self, group_id: str) -> None:
+        self.path(group_id).unlink(missing_ok=True)
+
     def write(self, group: dict[str, Any]) -> None:
         """Create the group's file (atomically: a reader never sees half of it)."""
         body = {k: v for k, v in group.items() if k != "id"}

@@ -25,6 +25,7 @@ from typing import Any
 from ..analysis.table import RunTable
 from ..runlog.codes import gap as relative_gap
 from ..runlog.errors import RunLogError
+from ..runlog.notes import notes_path
 from .errors import Conflict, Forbidden, Invalid, NotFound
 from .ids import RUN_SUFFIXES, check_id, split_name
 
@@ -198,6 +199,8 @@ class RunLibrary:
             raise Conflict(f"run {rf.id!r} is still being solved; cancel it first",
                            detail={"id": rf.id})
         rf.path.unlink(missing_ok=True)
+        # Its notes go with it: a later run of the same name would not match them.
+        notes_path(rf.path).unlink(missing_ok=True)
         for suffix in (".table.npz", ".layout.npz", ".nodes.npz"):
             with contextlib.suppress(OSError):
                 Path(self.cache_file(rf, suffix)).unlink()

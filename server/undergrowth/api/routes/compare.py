@@ -160,6 +160,12 @@ def compare_table(ctx: ServerContext, run_ids: list[str], *, group: str | None =
 
 
 # ------------------------------------------------------------------ groups
+class GroupDeleted(BaseModel):
+    id: str
+    deleted: bool
+    runs: list[str]  # the member runs deleted with it
+
+
 @router.post("/api/groups", status_code=202, response_model=GroupOut, responses=errors(503),
              summary="start a comparison: one model under several rules, orders and seeds")
 async def start_group(body: GroupRequest, ctx: Ctx) -> dict[str, Any]:
@@ -226,6 +232,27 @@ async def cancel_group(group_id: str, ctx: Ctx) -> dict[str, Any]:
         if ctx.jobs.is_active(run_id):
             await ctx.jobs.cancel(run_id)
     return _describe(ctx, group)
+
+
+@router.delete("/api/groups/{group_id}", response_model=GroupDeleted, responses=errors(409),
+               summary="delete a finished group: its member runs and its group file")
+async def delete_group(group_id: str, ctx: Ctx) -> dict[str, Any]:
+    store = _store(ctx)
+    group = store.require(group_id)
+    ids = [str(r.get("run_id")) for r in group["runs"] if isinstance(r, dict)]
+    active = [i for i in ids if ctx.jobs.is_active(i)]
+    if active:
+        raise Conflict(f"group {group_id!r} still has {len(active)} member(s) queued or "
+                       "running; cancel it first", detail={"id": group_id, "active": active})
+    deleted = []
+    for run_id in ids:
+        rf = ctx.library.find(run_id)
+        if rf is not None and rf.writable:
+            ctx.library.delete(rf)
+            deleted.append(run_id)
+        ctx.jobs.forget(run_id)
+    store.delete(group_id)
+    return {"id": group_id, "deleted": True, "runs": deleted}
 
 
 @router.get("/api/groups/{group_id}/table", response_model=CompareTable, responses=errors(),
