@@ -128,18 +128,6 @@ def _trace_dual(table: RunTable, axis: str) -> tuple[np.ndarray, np.ndarray]:
     return x[ok].astype(np.float64), y[ok].astype(np.float64)
 
 
-def _root_point(table: RunTable, axis: str) -> tuple[float, float] | None:
-    c = table.columns
-    if not len(table):
-        return None
-    roots = np.flatnonzero((c["parent_row"] < 0) & (c["order"] >= 0))
-    if len(roots) != 1 or np.isnan(c["bound"][roots[0]]):
-        return None
-    r = roots[0]
-    x = float(c["order"][r] + 1) if axis == "nodes" else float(c["time"][r])
-    return x, float(c["bound"][r])
-
-
 def bound_series(table: RunTable, *, axis: str = "nodes", points: int = 1000) -> BoundSeries:
     """Primal, dual and gap of ``table`` over ``axis`` ("nodes" or "time"),
     each reduced to at most ``points`` points."""
@@ -164,11 +152,6 @@ def bound_series(table: RunTable, *, axis: str = "nodes", points: int = 1000) ->
         before, after = dx < tx[0], dx > tx[-1]
         dx = np.r_[dx[before], tx, dx[after]]
         dy = np.r_[dy[before], ty, dy[after]]
-    # The root's bound is a valid dual bound from the moment it is solved: it starts the
-    # line before the first snapshot (often many nodes later in a short run).
-    root = _root_point(table, axis)
-    if root is not None and (not len(dx) or root[0] < dx[0]):
-        dx, dy = np.r_[root[0], dx], np.r_[root[1], dy]
     # The primal line runs on to the last snapshot; incumbents keep their own points.
     end_x = max(float(px[-1]) if len(px) else -np.inf, float(dx[-1]) if len(dx) else -np.inf)
     if len(px) and end_x > px[-1]:
